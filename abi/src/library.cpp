@@ -1,0 +1,94 @@
+// Library-wide calls of the C interface: versions, status texts, last error, water.
+#include <string>
+
+#include "elyblock/elyblock.h"
+#include "elyblock_version.h"
+#include "guard.hpp"
+#include "thermo/reaction.hpp"
+#include "thermo/water.hpp"
+
+namespace ely::capi {
+namespace {
+thread_local std::string t_last_error;
+}
+
+void set_last_error(const std::string& message) noexcept {
+    try {
+        t_last_error = message;
+    } catch (...) {
+        t_last_error.clear();  // out of memory while copying: an empty message beats none
+    }
+}
+
+void clear_last_error() noexcept { t_last_error.clear(); }
+
+int32_t status_of(ErrorKind kind) noexcept {
+    switch (kind) {
+        case ErrorKind::invalid_argument: return ELY_ERR_INVALID_ARGUMENT;
+        case ErrorKind::out_of_range: return ELY_ERR_OUT_OF_RANGE;
+        case ErrorKind::config: return ELY_ERR_CONFIG;
+        case ErrorKind::infeasible: return ELY_ERR_INFEASIBLE;
+        case ErrorKind::no_convergence: return ELY_ERR_NO_CONVERGENCE;
+        case ErrorKind::unknown_name: return ELY_ERR_UNKNOWN_NAME;
+        case ErrorKind::wrong_state: return ELY_ERR_WRONG_STATE;
+        case ErrorKind::io: return ELY_ERR_IO;
+        case ErrorKind::internal: return ELY_ERR_INTERNAL;
+    }
+    return ELY_ERR_INTERNAL;
+}
+
+}  // namespace ely::capi
+
+extern "C" {
+
+ELY_API int32_t ely_abi_version(void) { return ELY_ABI_VERSION; }
+
+ELY_API const char* ely_version(void) { return ELYBLOCK_VERSION_STRING; }
+
+ELY_API const char* ely_last_error(void) { return ely::capi::t_last_error.c_str(); }
+
+ELY_API const char* ely_status_text(int32_t status) {
+    switch (status) {
+        case ELY_OK: return "ok";
+        case ELY_WARNING: return "solved with a warning";
+        case ELY_PARTIAL: return "batch finished; some points failed";
+        case ELY_ERR_INVALID_ARGUMENT: return "invalid argument";
+        case ELY_ERR_OUT_OF_RANGE: return "out of range";
+        case ELY_ERR_CONFIG: return "invalid configuration";
+        case ELY_ERR_INFEASIBLE: return "infeasible specification";
+        case ELY_ERR_NO_CONVERGENCE: return "no convergence";
+        case ELY_ERR_UNKNOWN_NAME: return "unknown name";
+        case ELY_ERR_WRONG_STATE: return "call in the wrong state";
+        case ELY_ERR_IO: return "file error";
+        case ELY_ERR_BUFFER_TOO_SMALL: return "buffer too small";
+        case ELY_ERR_CANCELLED: return "cancelled";
+        case ELY_ERR_OUT_OF_MEMORY: return "out of memory";
+        case ELY_ERR_INTERNAL: return "internal error";
+        default: return "unknown status";
+    }
+}
+
+ELY_API int32_t ely_water_saturation_pressure(double temperature_K, double* pressure_Pa) {
+    return ely::capi::guard([&] {
+        ely::capi::require_pointer(pressure_Pa, "pressure_Pa");
+        const double p = ely::water_saturation_pressure(temperature_K);
+        *pressure_Pa = p;
+        return ELY_OK;
+    });
+}
+
+ELY_API int32_t ely_water_electrolysis_voltages(double temperature_K, double pressure_anode_Pa,
+                                                double pressure_cathode_Pa, double* reversible_V,
+                                                double* thermoneutral_V) {
+    return ely::capi::guard([&] {
+        if (reversible_V == nullptr && thermoneutral_V == nullptr)
+            throw ely::Error(ely::ErrorKind::invalid_argument, "reversible_V and thermoneutral_V are both NULL");
+        const double e_rev = ely::reversible_voltage_liquid_water(temperature_K, pressure_anode_Pa, pressure_cathode_Pa);
+        const double e_tn = ely::thermoneutral_voltage_hhv(temperature_K);
+        if (reversible_V) *reversible_V = e_rev;
+        if (thermoneutral_V) *thermoneutral_V = e_tn;
+        return ELY_OK;
+    });
+}
+
+}  // extern "C"

@@ -1,0 +1,233 @@
+// Thermodynamic core: constants, species, liquid water, reaction voltages.
+// Every reference value names its source beside it.
+#include <gmock/gmock.h>
+#include <gtest/gtest.h>
+
+#include <cmath>
+
+#include "thermo/constants.hpp"
+#include "thermo/error.hpp"
+#include "thermo/if97.hpp"
+#include "thermo/reaction.hpp"
+#include "thermo/species.hpp"
+#include "thermo/water.hpp"
+
+using namespace ely;
+using ::testing::HasSubstr;
+
+namespace {
+double rel(double a, double b) { return std::fabs(a / b - 1.0); }
+
+template <class F>
+void expect_error(F&& f, ErrorKind kind, const char* fragment) {
+    try {
+        f();
+        ADD_FAILURE() << "no ely::Error thrown; expected one containing '" << fragment << "'";
+    } catch (const Error& e) {
+        EXPECT_EQ(e.kind(), kind) << e.what();
+        EXPECT_THAT(e.what(), HasSubstr(fragment));
+    }
+}
+}  // namespace
+
+TEST(Constants, Codata2018) {
+    // CODATA 2018 (Tiesinga et al. 2021): F = 96485.33212 C/mol, R = 8.314462618 J/(mol K)
+    EXPECT_LT(rel(kFaraday, 96485.33212), 1e-10);
+    EXPECT_LT(rel(kGasConstant, 8.314462618), 1e-10);
+}
+
+TEST(Constants, MolarMassesFromIupacTable) {
+    // IUPAC 2016 conventional atomic weights (Meija et al. 2016): H2O 18.015, H2 2.016,
+    // O2 31.998, Cl2 70.90, NaOH 39.997, NaCl 58.44 g/mol
+    EXPECT_LT(rel(molar_mass::H2O, 18.015e-3), 1e-4);
+    EXPECT_LT(rel(molar_mass::H2, 2.016e-3), 1e-4);
+    EXPECT_LT(rel(molar_mass::O2, 31.998e-3), 1e-4);
+    EXPECT_LT(rel(molar_mass::Cl2, 70.90e-3), 1e-4);
+    EXPECT_LT(rel(molar_mass::NaOH, 39.997e-3), 1e-4);
+    EXPECT_LT(rel(molar_mass::NaCl, 58.44e-3), 1e-4);
+}
+
+TEST(Species, StandardEntropiesAt298) {
+    // CODATA key values (Cox, Wagman & Medvedev 1989): S°(H2) 130.680, S°(O2) 205.152,
+    // S°(H2O, g) 188.835 J/(mol K); NIST WebBook (from memory): S°(N2) 191.61, S°(Cl2) 223.08.
+    EXPECT_NEAR(ideal_gas(Species::hydrogen, 298.15).entropy, 130.680, 0.01);
+    EXPECT_NEAR(ideal_gas(Species::oxygen, 298.15).entropy, 205.152, 0.01);
+    EXPECT_NEAR(ideal_gas(Species::water_vapour, 298.15).entropy, 188.835, 1e-9);
+    EXPECT_NEAR(ideal_gas(Species::nitrogen, 298.15).entropy, 191.61, 0.02);
+    EXPECT_NEAR(ideal_gas(Species::chlorine, 298.15).entropy, 223.08, 0.02);
+}
+
+TEST(Species, EnthalpyIsFormationEnthalpyAt298) {
+    // Elements: h(298.15 K) = 0 (reference state); H2O(g): −241.826 kJ/mol (CODATA key value).
+    for (auto s : {Species::hydrogen, Species::oxygen, Species::nitrogen, Species::chlorine})
+        EXPECT_NEAR(ideal_gas(s, 298.15).enthalpy, 0.0, 2.0) << species_name(s);
+    EXPECT_NEAR(ideal_gas(Species::water_vapour, 298.15).enthalpy, -241826.0, 1e-6);
+}
+
+TEST(Species, WaterVapourJoinsTheShomateFitAt500K) {
+    // The IF97 ideal-gas part (below 500 K) and the NIST Shomate fit (above) describe the same
+    // ideal gas; their step at the switch stays within the fits' accuracy.
+    const auto below = ideal_gas(Species::water_vapour, 500.0 - 1e-9);
+    const auto above = ideal_gas(Species::water_vapour, 500.0 + 1e-9);
+    EXPECT_NEAR(below.enthalpy, above.enthalpy, 15.0);  // J/mol
+    EXPECT_NEAR(below.entropy, above.entropy, 0.03);    // J/(mol K)
+    EXPECT_NEAR(below.cp, above.cp, 0.05);              // J/(mol K)
+}
+
+TEST(Species, IdentitiesOverTemperatureGrid) {
+    // g = h − T·s exactly; cp = dh/dT and cp/T = ds/dT by central differences.
+    for (int i = 0; i < kSpeciesCount; ++i) {
+        const auto sp = static_cast<Species>(i);
+        const auto range = ideal_gas_range(sp);
+        for (double t = range.lo + 1.0; t < std::min(range.hi, 1600.0) - 1.0; t += 37.0) {
+            if (std::fabs(t - 500.0) < 1.0 || std::fabs(t - 700.0) < 1.0 || std::fabs(t - 1000.0) < 1.0) continue;
+            const auto p = ideal_gas(sp, t);
+            EXPECT_NEAR(p.gibbs, p.enthalpy - t * p.entropy, 1e-9 * std::fabs(p.enthalpy) + 1e-9);
+            const double d = 1e-3;
+            const auto hi = ideal_gas(sp, t + d), lo = ideal_gas(sp, t - d);
+            EXPECT_NEAR((hi.enthalpy - lo.enthalpy) / (2 * d), p.cp, 1e-5 * p.cp) << species_name(sp) << " " << t;
+            EXPECT_NEAR((hi.entropy - lo.entropy) / (2 * d), p.cp / t, 1e-5 * p.cp / t) << species_name(sp) << " " << t;
+        }
+    }
+}
+
+TEST(Species, OutsideFitRangeIsAnError) {
+    expect_error([] { ideal_gas(Species::hydrogen, 250.0); }, ErrorKind::out_of_range, "298");
+    expect_error([] { ideal_gas(Species::water_vapour, 1800.0); }, ErrorKind::out_of_range, "1700");
+    expect_error([] { ideal_gas(Species::oxygen, std::nan("")); }, ErrorKind::invalid_argument, "temperature");
+}
+
+TEST(LiquidWater, AnchoredToCodataAt298) {
+    // CODATA key values: ΔfH°(H2O, l) = −285.830 kJ/mol, S° = 69.950 J/(mol K)
+    const auto w = liquid_water(298.15, 1e5);
+    EXPECT_NEAR(w.enthalpy, -285830.0, 1e-6);
+    EXPECT_NEAR(w.entropy, 69.950, 1e-9);
+    // IAPWS-95 / IF97: cp of liquid water at 25 °C ≈ 4.18 kJ/(kg K) = 75.3 J/(mol K) (common practice)
+    EXPECT_NEAR(w.cp, 75.3, 0.1);
+}
+
+TEST(LiquidWater, EnthalpyOfVaporizationAt298) {
+    // Standard vaporization enthalpy, CODATA: −241.826 − (−285.830) = 44.004 kJ/mol [derived]
+    EXPECT_NEAR(ideal_gas(Species::water_vapour, 298.15).enthalpy - liquid_water(298.15, 1e5).enthalpy, 44004.0,
+                1e-6);
+}
+
+TEST(Reaction, WaterSplittingAt298FromCodataKeyValues) {
+    // REFERENCES.md [D]: E_rev = 1.2289 V, E_tn = 1.4812 V (HHV), 1.2532 V (LHV) at 298.15 K
+    const auto liq = water_splitting(298.15, WaterFeed::liquid);
+    EXPECT_NEAR(reversible_voltage_standard(liq), 1.2289, 1e-4);
+    EXPECT_NEAR(thermoneutral_voltage(liq), 1.4812, 1e-4);
+    EXPECT_NEAR(thermoneutral_voltage_hhv(298.15), 1.4812, 1e-4);
+    EXPECT_NEAR(thermoneutral_voltage_lhv(298.15), 1.2532, 1e-4);
+}
+
+TEST(Reaction, SteamSplittingAgainstJanafGibbsEnergies) {
+    // NIST-JANAF (Chase 1998) ΔfG°(H2O, g): E° = −ΔfG°/(2F) [S]
+    const struct { double t, dfg; } janaf[] = {{800, -203501}, {900, -198091}, {1000, -192603}, {1100, -187052}};
+    for (const auto& row : janaf) {
+        const double e = reversible_voltage_standard(water_splitting(row.t, WaterFeed::steam));
+        EXPECT_NEAR(e, -row.dfg / (2 * kFaraday), 2e-4) << row.t;  // Shomate vs JANAF table: < 0.2 mV
+    }
+}
+
+TEST(Reaction, LiquidAndSteamDifferByTheGibbsEnergyOfVaporization) {
+    // Identity: E°_liq − E°_steam = [g°_vap(T) − g°_liq(T)]/(2F); with IF97 at saturation
+    // g_liq(T, p_sat) = g_vap(T, p_sat), so the gap is RT·ln(p°/p_sat) plus the residual Gibbs
+    // energy of real steam at p_sat (IF97 region 2 minus its ideal-gas part) plus ∫v dp of the
+    // liquid from p_sat to p°. Checks the CODATA anchors, the IF97 regions and Shomate together.
+    for (double t = 298.15; t <= 370.0; t += 7.5) {
+        const double psat = if97::saturation_pressure(t);
+        const double gap = reversible_voltage_standard(water_splitting(t, WaterFeed::liquid)) -
+                           reversible_voltage_standard(water_splitting(t, WaterFeed::steam));
+        const auto real = if97::region2(t, psat), ideal = if97::region2_ideal_gas(t, psat);
+        const double g_res = molar_mass::H2O * ((real.h - t * real.s) - (ideal.h - t * ideal.s));
+        const double v_liq = molar_mass::H2O * if97::region1(t, psat).v;
+        const double expected = (kGasConstant * t * std::log(kStandardPressure / psat) - g_res +
+                                 v_liq * (kStandardPressure - psat)) / (2 * kFaraday);
+        // 30 µV (6 J/mol): the CODATA 1989 key values against the IAPWS vapour pressure, and the
+        // consistency of IF97 regions 1 and 2 at saturation. A wrong term would cost millivolts.
+        EXPECT_NEAR(gap, expected, 3e-5) << t;
+    }
+}
+
+TEST(Reaction, LiquidReversibleVoltageAt80C) {
+    // E°(80 °C) ≈ 1.184 V for liquid water at 1 bar (LeRoy, Bowen & LeRoy 1980; from memory)
+    EXPECT_NEAR(reversible_voltage_standard(water_splitting(353.15, WaterFeed::liquid)), 1.184, 2e-3);
+}
+
+TEST(Reaction, TemperatureDerivativeIsEntropy) {
+    // dE_rev/dT = −ΔS/(zF) for the decomposition voltage (Gibbs–Helmholtz), and ΔG = ΔH − TΔS.
+    // Liquid water's standard state sits at p° only below its normal boiling point (above,
+    // on the saturation line), so the liquid case runs to 370 K.
+    for (double t = 300.0; t <= 600.0; t += 10.0) {
+        for (auto feed : {WaterFeed::liquid, WaterFeed::steam}) {
+            if (feed == WaterFeed::liquid && t > 370.0) continue;
+            if (t == 500.0) continue;  // steam: switch from the IF97 ideal-gas part to the Shomate fit
+            const auto r = water_splitting(t, feed);
+            const double d = 1e-3;
+            const double de_dt = (reversible_voltage_standard(water_splitting(t + d, feed)) -
+                                  reversible_voltage_standard(water_splitting(t - d, feed))) / (2 * d);
+            EXPECT_NEAR(de_dt, -r.entropy / (2 * kFaraday), 1e-8) << t;
+            EXPECT_NEAR(r.gibbs, r.enthalpy - t * r.entropy, 1e-9 * r.enthalpy);
+        }
+    }
+}
+
+TEST(Reaction, NernstPressureTermClosedForm) {
+    // Liquid feed: E − E° = (RT/2F)·ln[(p_H2/p°)(p_O2/p°)^½], p_i = p − p_sat(T) (wet gases).
+    const double t = 353.15;
+    const double psat = water_saturation_pressure(t);
+    const double e0 = reversible_voltage_standard(water_splitting(t, WaterFeed::liquid));
+    const double pa[] = {1.0e5, 1.3e5, 5.0e5, 30.0e5}, pc[] = {1.0e5, 3.0e5, 30.0e5, 80.0e5};
+    for (double a : pa)
+        for (double c : pc) {
+            const double expected = e0 + kGasConstant * t / (2 * kFaraday) *
+                                             (std::log((c - psat) / 1e5) + 0.5 * std::log((a - psat) / 1e5));
+            EXPECT_NEAR(reversible_voltage_liquid_water(t, a, c), expected, 1e-12);
+        }
+    // 30 bar cathode vs 1 bar at 80 °C: +61 mV, more than RT/2F·ln 30 = 52 mV because wet
+    // hydrogen at 1 bar holds only 0.53 bar H2 (p_sat = 0.474 bar).
+    const double rise = reversible_voltage_liquid_water(t, 1e5, 30e5) - reversible_voltage_liquid_water(t, 1e5, 1e5);
+    EXPECT_NEAR(rise, kGasConstant * t / (2 * kFaraday) * std::log((30e5 - psat) / (1e5 - psat)), 1e-12);
+    EXPECT_GT(rise, 0.04);
+    EXPECT_LT(rise, 0.065);
+}
+
+TEST(Reaction, SteamNernstClosedForm) {
+    // SOEC: E = E° + (RT/2F) ln[x_H2·x_O2^½/x_H2O·(p/p°)^½] at a common pressure p.
+    const double t = 1073.15, p = 1.0e5;
+    const double e0 = reversible_voltage_standard(water_splitting(t, WaterFeed::steam));
+    const double e = reversible_voltage_steam(t, 0.1 * p, 0.9 * p, 0.21 * p);
+    EXPECT_NEAR(e, e0 + kGasConstant * t / (2 * kFaraday) * std::log(0.1 * std::sqrt(0.21) / 0.9), 1e-12);
+}
+
+TEST(Reaction, BrineDecompositionVoltageFromCrcPotentials) {
+    // CRC Handbook (Vanýsek, Electrochemical Series): E°(Cl2/Cl−) = 1.35827 V,
+    // E°(H2O/H2, OH−) = −0.8277 V ⇒ 2.18597 V. The model's E° comes from NBS formation data
+    // (Wagman et al. 1982; from memory), an independent route: agree within 3 mV.
+    EXPECT_NEAR(reversible_voltage_standard(brine_electrolysis(298.15)), 1.35827 + 0.8277, 3e-3);
+    // ΔH > ΔG: the thermoneutral voltage lies above the reversible one.
+    EXPECT_GT(thermoneutral_voltage(brine_electrolysis(353.15)), reversible_voltage_standard(brine_electrolysis(353.15)));
+}
+
+TEST(Reaction, BrineTemperatureDerivativeIsEntropy) {
+    for (double t = 300.0; t <= 370.0; t += 10.0) {  // below 372.76 K: liquid water at p°
+        const auto r = brine_electrolysis(t);
+        const double d = 1e-3;
+        const double de_dt = (reversible_voltage_standard(brine_electrolysis(t + d)) -
+                              reversible_voltage_standard(brine_electrolysis(t - d))) / (2 * d);
+        EXPECT_NEAR(de_dt, -r.entropy / (2 * kFaraday), 1e-8) << t;
+    }
+}
+
+TEST(Reaction, PressureBelowVapourPressureIsAnError) {
+    // At 80 °C water boils at 47.4 kPa: a 0.4 bar cathode holds no hydrogen partial pressure.
+    expect_error([] { reversible_voltage_liquid_water(353.15, 1e5, 0.4e5); }, ErrorKind::out_of_range,
+                 "cathode pressure");
+    expect_error([] { reversible_voltage_liquid_water(353.15, -1.0, 1e5); }, ErrorKind::invalid_argument,
+                 "anode pressure");
+    expect_error([] { reversible_voltage_liquid_water(std::nan(""), 1e5, 1e5); }, ErrorKind::invalid_argument,
+                 "temperature");
+    expect_error([] { reversible_voltage_liquid_water(700.0, 1e5, 1e5); }, ErrorKind::out_of_range, "K");
+    expect_error([] { brine_electrolysis(500.0); }, ErrorKind::out_of_range, "473.15");
+}
