@@ -72,7 +72,7 @@ constexpr double kVapourEntropy298 = 188.835;
 
 MolarProperties water_vapour_low(double temperature) {
     const double M = molar_mass::H2O;
-    const auto ref = if97::region2_ideal_gas(kStandardTemperature, kStandardPressure);
+    static const auto ref = if97::region2_ideal_gas(kStandardTemperature, kStandardPressure);
     const auto st = if97::region2_ideal_gas(temperature, kStandardPressure);
     MolarProperties p{};
     p.cp = M * st.cp;

@@ -9,7 +9,7 @@ namespace ely {
 
 MolarProperties liquid_water(double temperature, double pressure) {
     const double M = molar_mass::H2O;
-    const auto ref = if97::region1(kStandardTemperature, kStandardPressure);
+    static const auto ref = if97::region1(kStandardTemperature, kStandardPressure);
     const auto st = if97::region1(temperature, pressure);
     MolarProperties p{};
     p.cp = M * st.cp;

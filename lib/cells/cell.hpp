@@ -1,0 +1,112 @@
+#pragma once
+// The one interface every cell technology implements. A cell turns an operating point into
+// its voltage breakdown, Faraday efficiency, gas purities and the molar fluxes (per m² of
+// active area) that leave each side — everything the unit layer needs for its balances.
+//
+// Sign conventions: current density j >= 0 in electrolysis; every loss term is >= 0; the
+// voltage is the sum voltage = reversible + activation_anode + activation_cathode + ohmic
+// + concentration, exactly (the cells compute the parts and add them, never back out one).
+#include <array>
+#include <cstdint>
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "cells/parameters.hpp"
+
+namespace ely {
+
+enum class Technology { pem, alkaline, solid_oxide, brine, custom };
+const char* technology_name(Technology t);
+
+/// Components carried in the streams. Aqueous NaOH/NaCl are solutes of the brine cell.
+enum Component : int { kH2 = 0, kO2, kH2O, kCl2, kNaOH, kNaCl, kComponentCount };
+using Fluxes = std::array<double, kComponentCount>;  // mol/(m² s)
+
+struct OperatingPoint {
+    double current_density;   // A/m² of active area, >= 0
+    double temperature;       // K, stack (cell) temperature
+    double pressure_anode;    // Pa, absolute
+    double pressure_cathode;  // Pa, absolute
+};
+
+/// Validity envelope of a cell model. Outside [lo, hi]: error. Between the "recommended"
+/// and hard limits: the result carries a warning flag (extrapolated).
+struct Envelope {
+    double temperature_min, temperature_max;          // K, hard
+    double pressure_min, pressure_max;                // Pa, hard, each electrode
+    double current_density_max;                       // A/m², hard
+    double temperature_fit_min, temperature_fit_max;  // K, where the defaults were fitted
+};
+
+enum CellWarning : uint32_t {
+    kWarnTemperatureExtrapolated = 1u << 0,  // outside the range of the fitted parameters
+    kWarnNearLimitingCurrent = 1u << 1,      // j > 0.95 j_lim
+    kWarnConcentrationExtrapolated = 1u << 2,
+};
+
+struct CellResult {
+    // Voltages, V
+    double voltage = 0;
+    double reversible_voltage = 0;
+    double thermoneutral_voltage = 0;
+    double activation_anode = 0;
+    double activation_cathode = 0;
+    double ohmic = 0;
+    double concentration = 0;
+    double current_density = 0;  // A/m² (echo of the input)
+
+    double faraday_efficiency = 1;  // hydrogen basis: H2 leaving in the cathode product / (j/2F)
+    double h2_in_o2 = 0;            // mol/mol, dry anode gas (H2 in the main anode gas, Cl2 for brine)
+    double o2_in_h2 = 0;            // mol/mol, dry cathode gas
+
+    // Dry products leaving each side and components taken from the feed, mol/(m² s).
+    // Element balances over feed → cathode_out + anode_out close exactly (tested).
+    Fluxes cathode_out{};
+    Fluxes anode_out{};
+    Fluxes consumed{};
+
+    // Wet gases leave saturated at stack temperature over an electrolyte of this water
+    // activity (liquid-electrolyte cells); solid oxide carries its steam in cathode_out and
+    // sets gases_saturated = false.
+    bool gases_saturated = true;
+    double water_activity_anode = 1;
+    double water_activity_cathode = 1;
+    double water_drag = 0;  // mol/(m² s) of liquid water carried anode → cathode (PEM)
+
+    // Brine cells: current efficiencies of caustic and chlorine; 1 for the others.
+    double caustic_efficiency = 1;
+    double chlorine_efficiency = 1;
+    double caustic_mass_fraction = 0;  // catholyte NaOH strength, kg/kg
+
+    uint32_t warnings = 0;  // CellWarning bits
+
+    // Custom cells: one entry per half-reaction, its share of its electrode's current.
+    std::vector<double> reaction_current_efficiency;
+};
+
+class Cell {
+public:
+    virtual ~Cell() = default;
+    virtual Technology technology() const = 0;
+    virtual const Envelope& envelope() const = 0;
+    /// Throws ely::Error for a point outside the hard envelope (naming the limit) and for a
+    /// current density at or above the limiting current density.
+    virtual CellResult evaluate(const OperatingPoint& point) const = 0;
+    virtual std::unique_ptr<Cell> clone() const = 0;
+    /// Largest current density the model accepts at this temperature/pressure, A/m².
+    virtual double current_density_limit(const OperatingPoint& point) const = 0;
+};
+
+/// Parameter descriptions of a technology (defaults with their sources).
+const std::vector<ParameterInfo>& cell_parameters(Technology technology);
+
+/// Builds a cell from validated parameter values of its technology. The custom cell is made
+/// by make_custom_cell (cells/custom.hpp) from its reaction table instead.
+std::unique_ptr<Cell> make_cell(Technology technology, const ParameterValues& values);
+
+/// Checks a point against an envelope: throws out_of_range naming the limit; returns the
+/// extrapolation warning bits for the soft limits.
+uint32_t check_envelope(const Envelope& envelope, const OperatingPoint& point, const char* model);
+
+}  // namespace ely
