@@ -32,6 +32,8 @@ int32_t status_of(ErrorKind kind) noexcept {
         case ErrorKind::unknown_name: return ELY_ERR_UNKNOWN_NAME;
         case ErrorKind::wrong_state: return ELY_ERR_WRONG_STATE;
         case ErrorKind::io: return ELY_ERR_IO;
+        case ErrorKind::buffer_too_small: return ELY_ERR_BUFFER_TOO_SMALL;
+        case ErrorKind::cancelled: return ELY_ERR_CANCELLED;
         case ErrorKind::internal: return ELY_ERR_INTERNAL;
     }
     return ELY_ERR_INTERNAL;

@@ -1,53 +1,293 @@
-// elyblock command line. Uses only the public C interface.
+// elyblock command line. A client of the public C interface only.
 #include <elyblock/elyblock.h>
 #include <fmt/format.h>
 
+#include <cmath>
+#include <cstdio>
 #include <cstdlib>
 #include <cstring>
+#include <memory>
 #include <string>
+#include <utility>
+#include <vector>
 
 namespace {
 
 const char* const kCautions =
     "CAUTION: electrolyzers handle hydrogen/oxygen mixtures (flammable from about 4 % H2),\n"
-    "high DC currents, caustic electrolytes, chlorine and hot stacks. These results are model\n"
-    "estimates for study work only; design, operation and safety follow local codes, standards\n"
-    "and licensed engineering practice.\n";
+    "DC currents of thousands of amperes, hot caustic electrolytes, chlorine and hot stacks.\n"
+    "These are model estimates for study work; design, operation, alarms and trips follow\n"
+    "local codes, standards and licensed engineering practice.\n";
 
-int usage(int code) {
-    fmt::print(code == 0 ? stdout : stderr,
-               "usage: elyblock thermo <temperature K> <anode pressure Pa> <cathode pressure Pa>\n"
-               "       elyblock version\n");
-    return code;
-}
+const char* const kUsage =
+    "usage:\n"
+    "  elyblock solve <config.json> [--spec S] [--set NAME=VALUE]... [--format table|json|csv]\n"
+    "      solve one operating point; table (default) is a readable summary\n"
+    "  elyblock sweep <config.json> --over NAME --from A --to B [--points N] [--spec S]\n"
+    "                 [--set NAME=VALUE]... [--columns NAME,NAME,...] [--output FILE]\n"
+    "      polarization curve or any one-input sweep, as CSV (stdout unless --output)\n"
+    "  elyblock variables <config.json>\n"
+    "      list the block's variables: name, unit, causality, description\n"
+    "  elyblock water <temperature K> <anode pressure Pa> <cathode pressure Pa>\n"
+    "      reversible and thermoneutral voltage of water splitting, liquid feed\n"
+    "  elyblock version\n"
+    "Values are SI (K, Pa, A/m2, W, kg/s, V). Exit status: 0 ok, 1 model error, 2 usage error.\n";
 
-bool parse_number(const char* text, double& out) {
+struct UsageError {
+    std::string message;
+};
+
+struct BlockHandle {
+    ely_block* p = nullptr;
+    ~BlockHandle() { ely_block_destroy(p); }
+};
+
+[[noreturn]] void fail_usage(std::string message) { throw UsageError{std::move(message)}; }
+
+double parse_number(const std::string& text, const char* what) {
     char* end = nullptr;
-    out = std::strtod(text, &end);
-    return end != text && *end == '\0';
+    const double v = std::strtod(text.c_str(), &end);
+    if (text.empty() || end != text.c_str() + text.size() || !std::isfinite(v))
+        fail_usage(fmt::format("{} '{}' is not a finite number", what, text));
+    return v;
 }
 
-int command_thermo(int argc, char** argv) {
-    if (argc != 5) return usage(2);
-    double t = 0, pa = 0, pc = 0;
-    if (!parse_number(argv[2], t) || !parse_number(argv[3], pa) || !parse_number(argv[4], pc)) {
-        fmt::print(stderr, "elyblock: arguments must be numbers in K and Pa\n");
-        return 2;
+// Model failures carry the library's message and exit 1.
+struct ModelError {
+    std::string message;
+};
+
+void check(int32_t status, const char* doing) {
+    if (status < 0) throw ModelError{fmt::format("{}: {} ({})", doing, ely_last_error(), ely_status_text(status))};
+}
+
+int32_t find(const ely_block* b, const std::string& name) {
+    int32_t index = -1;
+    check(ely_block_find(b, name.c_str(), &index), "variable lookup");
+    return index;
+}
+
+struct Options {
+    std::string command, config, spec, format = "table", over, columns, output;
+    double from = NAN, to = NAN;
+    int points = 21;
+    std::vector<std::pair<std::string, double>> sets;
+};
+
+Options parse_options(int argc, char** argv) {
+    Options o;
+    o.command = argv[1];
+    int i = 2;
+    if (i < argc && argv[i][0] != '-') o.config = argv[i++];
+    auto value = [&](const char* flag) -> std::string {
+        if (i + 1 >= argc) fail_usage(fmt::format("{} needs a value", flag));
+        return argv[++i];
+    };
+    for (; i < argc; ++i) {
+        const std::string a = argv[i];
+        if (a == "--spec") o.spec = value("--spec");
+        else if (a == "--format") o.format = value("--format");
+        else if (a == "--over") o.over = value("--over");
+        else if (a == "--from") o.from = parse_number(value("--from"), "--from");
+        else if (a == "--to") o.to = parse_number(value("--to"), "--to");
+        else if (a == "--points") {
+            const double n = parse_number(value("--points"), "--points");
+            if (n < 2 || n > 1e6 || n != std::floor(n)) fail_usage("--points must be an integer from 2 to 1000000");
+            o.points = static_cast<int>(n);
+        } else if (a == "--columns") o.columns = value("--columns");
+        else if (a == "--output") o.output = value("--output");
+        else if (a == "--set") {
+            const std::string kv = value("--set");
+            const auto eq = kv.find('=');
+            if (eq == std::string::npos || eq == 0) fail_usage(fmt::format("--set expects NAME=VALUE, got '{}'", kv));
+            o.sets.emplace_back(kv.substr(0, eq), parse_number(kv.substr(eq + 1), kv.substr(0, eq).c_str()));
+        } else fail_usage(fmt::format("unknown option '{}'", a));
     }
+    if (o.config.empty()) fail_usage(fmt::format("'{}' needs a configuration file", o.command));
+    return o;
+}
+
+void open_block(const Options& o, BlockHandle& h) {
+    check(ely_block_create_from_file(o.config.c_str(), &h.p), "configuration");
+    if (!o.spec.empty()) check(ely_block_set_spec(h.p, o.spec.c_str()), "--spec");
+    for (const auto& [name, v] : o.sets) check(ely_block_set(h.p, find(h.p, name), v), ("--set " + name).c_str());
+}
+
+double get(const ely_block* b, const char* name) {
+    int32_t index = -1;
+    if (ely_block_find(b, name, &index) != ELY_OK) return NAN;  // not a variable of this technology
+    double v = NAN;
+    check(ely_block_get(b, index, &v), name);
+    return v;
+}
+
+std::string report(const ely_block* b) {
+    size_t n = 0;
+    check(ely_block_report_json(b, nullptr, 0, &n), "report");
+    std::string text(n, '\0');
+    check(ely_block_report_json(b, text.data(), text.size(), &n), "report");
+    text.resize(n - 1);
+    return text;
+}
+
+void print_summary(const ely_block* b, int32_t status) {
+    const double kwh = 3.6e6;
+    auto line = [](const char* label, double v, const char* unit, int decimals = 4) {
+        if (std::isfinite(v)) fmt::print("  {:<34}{:>14.{}f} {}\n", label, v, decimals, unit);
+    };
+    fmt::print("Operating point\n");
+    line("stack temperature", get(b, "in.temperature") - 273.15, "degC", 2);
+    line("cathode / anode pressure", get(b, "in.pressure_cathode") / 1e5, "bar", 3);
+    line("", get(b, "in.pressure_anode") / 1e5, "bar", 3);
+    line("current density", get(b, "cell.current_density") / 1e4, "A/cm2", 4);
+    line("load (of rated current density)", 100 * get(b, "perf.load_fraction"), "%", 1);
+    fmt::print("Cell voltage breakdown\n");
+    line("reversible voltage", get(b, "cell.reversible_voltage"), "V");
+    line("anode activation", get(b, "cell.activation_anode"), "V");
+    line("cathode activation", get(b, "cell.activation_cathode"), "V");
+    line("ohmic (incl. degradation)", get(b, "cell.ohmic"), "V");
+    line("concentration", get(b, "cell.concentration"), "V");
+    line("cell voltage", get(b, "cell.voltage"), "V");
+    line("thermoneutral voltage", get(b, "cell.thermoneutral_voltage"), "V");
+    fmt::print("Stacks and plant\n");
+    line("DC current (all stacks)", get(b, "stack.current") / 1e3, "kA", 3);
+    line("stack voltage", get(b, "stack.voltage"), "V", 1);
+    line("DC power", get(b, "stack.power") / 1e6, "MW", 4);
+    line("AC power (rectifier, auxiliaries)", get(b, "plant.power") / 1e6, "MW", 4);
+    fmt::print("Products and feeds\n");
+    line("hydrogen", get(b, "product.hydrogen") * 3600, "kg/h", 3);
+    line("oxygen", get(b, "product.oxygen") * 3600, "kg/h", 3);
+    line("chlorine", get(b, "product.chlorine") * 3600, "kg/h", 3);
+    line("caustic (100 % NaOH)", get(b, "product.caustic") * 3600, "kg/h", 3);
+    line("make-up water", get(b, "feed.water") * 3600, "kg/h", 3);
+    line("salt", get(b, "feed.salt") * 3600, "kg/h", 3);
+    line("water per hydrogen", get(b, "perf.water_per_hydrogen"), "kg/kg", 3);
+    fmt::print("Efficiency and heat\n");
+    line("Faraday efficiency", 100 * get(b, "cell.faraday_efficiency"), "%", 3);
+    line("caustic current efficiency", 100 * get(b, "cell.caustic_efficiency"), "%", 2);
+    line("specific energy, DC stack", get(b, "perf.specific_energy") / kwh, "kWh/kg", 2);
+    line("specific energy, AC plant", get(b, "perf.specific_energy_plant") / kwh, "kWh/kg", 2);
+    line("efficiency (HHV, DC)", 100 * get(b, "perf.efficiency_hhv"), "%", 2);
+    line("heat duty (+ remove, - supply)", get(b, "heat.duty") / 1e3, "kW", 2);
+    fmt::print("Gas purity\n");
+    line("H2 in anode gas (dry)", 100 * get(b, "gas.h2_in_o2"), "mol %", 4);
+    line("O2 in cathode gas (dry)", 100 * get(b, "gas.o2_in_h2"), "mol %", 4);
+    fmt::print("Alarms\n");
+    const char* names[] = {"alarm.h2_in_o2_warning", "alarm.h2_in_o2_trip", "alarm.temperature_high",
+                           "alarm.current_density_high", "alarm.load_low", "alarm.extrapolated"};
+    bool any = false;
+    for (const char* n : names)
+        if (get(b, n) > 0) { fmt::print("  RAISED  {}\n", n); any = true; }
+    if (!any) fmt::print("  none\n");
+    if (status == ELY_WARNING) fmt::print("  ({})\n", ely_last_error());
+    fmt::print("\n{}", kCautions);
+}
+
+int command_solve(const Options& o) {
+    BlockHandle h;
+    open_block(o, h);
+    const int32_t status = ely_block_solve(h.p);
+    check(status, "solve");
+    if (o.format == "json") {
+        fmt::print("{}\n", report(h.p));
+    } else if (o.format == "csv") {
+        int32_t n = 0;
+        check(ely_block_variable_count(h.p, &n), "variables");
+        fmt::print("name,value,unit\n");
+        for (int32_t i = 0; i < n; ++i) {
+            ely_variable_info info{};
+            info.struct_size = sizeof info;
+            check(ely_block_variable_info(h.p, i, &info), "variables");
+            double v = NAN;
+            check(ely_block_get(h.p, i, &v), info.name);
+            fmt::print("{},{:.10g},{}\n", info.name, v, info.unit);
+        }
+    } else if (o.format == "table") {
+        print_summary(h.p, status);
+    } else {
+        fail_usage(fmt::format("--format must be table, json or csv, not '{}'", o.format));
+    }
+    if (status == ELY_WARNING) fmt::print(stderr, "elyblock: warning: {}\n", ely_last_error());
+    return 0;
+}
+
+std::vector<std::string> split(const std::string& text) {
+    std::vector<std::string> out;
+    size_t start = 0;
+    while (start <= text.size()) {
+        const size_t comma = text.find(',', start);
+        const std::string item = text.substr(start, comma == std::string::npos ? std::string::npos : comma - start);
+        if (!item.empty()) out.push_back(item);
+        if (comma == std::string::npos) break;
+        start = comma + 1;
+    }
+    return out;
+}
+
+int command_sweep(const Options& o) {
+    if (o.over.empty() || !std::isfinite(o.from) || !std::isfinite(o.to))
+        fail_usage("sweep needs --over NAME --from A --to B");
+    BlockHandle h;
+    open_block(o, h);
+    const int32_t over = find(h.p, o.over);
+    const std::vector<std::string> columns =
+        o.columns.empty() ? split("cell.current_density,cell.voltage,cell.reversible_voltage,cell.activation_anode,"
+                                  "cell.activation_cathode,cell.ohmic,cell.concentration,cell.faraday_efficiency,"
+                                  "gas.h2_in_o2,stack.power,product.hydrogen,perf.specific_energy,heat.duty")
+                          : split(o.columns);
+    std::vector<int32_t> out_idx;
+    for (const auto& c : columns) out_idx.push_back(find(h.p, c));
+    const size_t n = static_cast<size_t>(o.points);
+    std::vector<double> in(n), out(n * out_idx.size());
+    std::vector<int32_t> status(n);
+    for (size_t k = 0; k < n; ++k) in[k] = o.from + (o.to - o.from) * static_cast<double>(k) / static_cast<double>(n - 1);
+    const int32_t s = ely_block_solve_batch(h.p, n, 1, &over, in.data(), static_cast<int32_t>(out_idx.size()),
+                                            out_idx.data(), out.data(), status.data(), nullptr, nullptr);
+    check(s, "sweep");
+    std::FILE* f = stdout;
+    if (!o.output.empty() && !(f = std::fopen(o.output.c_str(), "w")))
+        throw ModelError{fmt::format("cannot write '{}'", o.output)};
+    fmt::print(f, "{},status", o.over);
+    for (const auto& c : columns) fmt::print(f, ",{}", c);
+    fmt::print(f, "\n");
+    for (size_t k = 0; k < n; ++k) {
+        fmt::print(f, "{:.10g},{}", in[k], ely_status_text(status[k]));
+        for (size_t c = 0; c < out_idx.size(); ++c) {
+            const double v = out[k * out_idx.size() + c];
+            if (std::isfinite(v)) fmt::print(f, ",{:.10g}", v);
+            else fmt::print(f, ",");
+        }
+        fmt::print(f, "\n");
+    }
+    if (f != stdout) std::fclose(f);
+    if (s != ELY_OK) fmt::print(stderr, "elyblock: {}\n", ely_last_error());
+    return 0;
+}
+
+int command_variables(const Options& o) {
+    BlockHandle h;
+    check(ely_block_create_from_file(o.config.c_str(), &h.p), "configuration");
+    int32_t n = 0;
+    check(ely_block_variable_count(h.p, &n), "variables");
+    const char* causality[] = {"input", "output", "parameter"};
+    for (int32_t i = 0; i < n; ++i) {
+        ely_variable_info info{};
+        info.struct_size = sizeof info;
+        check(ely_block_variable_info(h.p, i, &info), "variables");
+        fmt::print("{:<30} {:<8} {:<9} {}\n", info.name, info.unit, causality[info.causality], info.description);
+    }
+    return 0;
+}
+
+int command_water(int argc, char** argv) {
+    if (argc != 5) fail_usage("water needs <temperature K> <anode pressure Pa> <cathode pressure Pa>");
+    const double t = parse_number(argv[2], "temperature"), pa = parse_number(argv[3], "anode pressure"),
+                 pc = parse_number(argv[4], "cathode pressure");
     double p_sat = 0, e_rev = 0, e_tn = 0;
-    int32_t s = ely_water_saturation_pressure(t, &p_sat);
-    if (s == ELY_OK) s = ely_water_electrolysis_voltages(t, pa, pc, &e_rev, &e_tn);
-    if (s < 0) {
-        fmt::print(stderr, "elyblock: {} ({})\n", ely_last_error(), ely_status_text(s));
-        return 1;
-    }
-    fmt::print("Water electrolysis, liquid feed — thermodynamic state\n");
-    fmt::print("  stack temperature        {:10.2f} K   ({:.2f} degC)\n", t, t - 273.15);
-    fmt::print("  anode / cathode pressure {:10.4g} Pa / {:.4g} Pa\n", pa, pc);
-    fmt::print("  water vapour pressure    {:10.1f} Pa\n", p_sat);
-    fmt::print("  reversible voltage       {:10.4f} V\n", e_rev);
-    fmt::print("  thermoneutral voltage    {:10.4f} V   (HHV basis)\n\n", e_tn);
-    fmt::print("{}", kCautions);
+    check(ely_water_saturation_pressure(t, &p_sat), "water");
+    check(ely_water_electrolysis_voltages(t, pa, pc, &e_rev, &e_tn), "water");
+    fmt::print("water vapour pressure  {:.2f} Pa\nreversible voltage     {:.5f} V\nthermoneutral voltage  {:.5f} V (HHV)\n",
+               p_sat, e_rev, e_tn);
     return 0;
 }
 
@@ -58,12 +298,27 @@ int main(int argc, char** argv) {
         fmt::print(stderr, "elyblock: library ABI {} does not match header ABI {}\n", ely_abi_version(), ELY_ABI_VERSION);
         return 1;
     }
-    if (argc < 2) return usage(2);
-    if (std::strcmp(argv[1], "thermo") == 0) return command_thermo(argc, argv);
-    if (std::strcmp(argv[1], "version") == 0) {
-        fmt::print("elyblock {} (ABI {})\n", ely_version(), ely_abi_version());
-        return 0;
+    try {
+        if (argc < 2) fail_usage("no command given");
+        const std::string cmd = argv[1];
+        if (cmd == "--help" || cmd == "help" || cmd == "-h") {
+            fmt::print("{}", kUsage);
+            return 0;
+        }
+        if (cmd == "version") {
+            fmt::print("elyblock {} (ABI {})\n", ely_version(), ely_abi_version());
+            return 0;
+        }
+        if (cmd == "water") return command_water(argc, argv);
+        if (cmd == "solve") return command_solve(parse_options(argc, argv));
+        if (cmd == "sweep") return command_sweep(parse_options(argc, argv));
+        if (cmd == "variables") return command_variables(parse_options(argc, argv));
+        fail_usage(fmt::format("unknown command '{}'", cmd));
+    } catch (const UsageError& e) {
+        fmt::print(stderr, "elyblock: {}\n\n{}", e.message, kUsage);
+        return 2;
+    } catch (const ModelError& e) {
+        fmt::print(stderr, "elyblock: {}\n", e.message);
+        return 1;
     }
-    if (std::strcmp(argv[1], "--help") == 0 || std::strcmp(argv[1], "help") == 0) return usage(0);
-    return usage(2);
 }

@@ -17,6 +17,8 @@ enum class ErrorKind {
     unknown_name,      // a variable name or key that does not exist
     wrong_state,       // a call in the wrong order of the life cycle
     io,                // a file that cannot be read
+    buffer_too_small,  // a caller's buffer cannot hold the result
+    cancelled,         // a progress callback asked to stop
     internal           // a broken invariant: a bug
 };
 

@@ -11,19 +11,6 @@
 namespace ely {
 namespace {
 
-// Aqueous solutes in their standard state (1 mol/kg, ideal dilute) at 298.15 K: NBS tables
-// of chemical thermodynamic properties (Wagman et al., J. Phys. Chem. Ref. Data 11, Suppl. 2,
-// 1982) — from memory. Their partial molar heat capacities are taken as constant: the
-// difference NaOH − NaCl (that is OH⁻ − Cl⁻), the only one that enters, changes little with
-// temperature below 100 °C.
-struct AqueousSolute {
-    double formation_enthalpy;  // J/mol
-    double entropy;             // J/(mol K)
-    double cp;                  // J/(mol K)
-};
-constexpr AqueousSolute kNaClAq{-407270.0, 115.5, -90.0};
-constexpr AqueousSolute kNaOHAq{-470114.0, 48.1, -102.1};
-
 constexpr double kBrineTemperatureLow = 298.0;   // H2 and Cl2 fits start at 298 K
 constexpr double kBrineTemperatureHigh = 473.15;
 
@@ -47,12 +34,10 @@ ReactionProperties brine_electrolysis(double temperature) {
     const auto h2 = ideal_gas(Species::hydrogen, temperature);
     const auto cl2 = ideal_gas(Species::chlorine, temperature);
     const auto water = liquid_water_standard(temperature);
-    const double dT = temperature - kStandardTemperature;
-    const double solute_h = 2.0 * (kNaOHAq.formation_enthalpy - kNaClAq.formation_enthalpy) +
-                            2.0 * (kNaOHAq.cp - kNaClAq.cp) * dT;
-    const double solute_s =
-        2.0 * (kNaOHAq.entropy - kNaClAq.entropy) +
-        2.0 * (kNaOHAq.cp - kNaClAq.cp) * std::log(temperature / kStandardTemperature);
+    const auto naoh = aqueous_solute(Solute::sodium_hydroxide, temperature);
+    const auto nacl = aqueous_solute(Solute::sodium_chloride, temperature);
+    const double solute_h = 2.0 * (naoh.enthalpy - nacl.enthalpy);
+    const double solute_s = 2.0 * (naoh.entropy - nacl.entropy);
     return combine(temperature, h2.enthalpy + cl2.enthalpy + solute_h - 2.0 * water.enthalpy,
                    h2.entropy + cl2.entropy + solute_s - 2.0 * water.entropy, 2);
 }

@@ -82,7 +82,33 @@ MolarProperties water_vapour_low(double temperature) {
     return p;
 }
 
+// Aqueous solutes at 298.15 K, 1 mol/kg: ΔfH° J/mol, S° J/(mol K), Cp° J/(mol K)
+// (NBS tables, Wagman et al. 1982; from memory). Cp° is taken as constant: the difference
+// NaOH − NaCl (that is OH⁻ − Cl⁻), the only one that enters the cell reaction, changes
+// little with temperature below 100 °C.
+struct SoluteData {
+    double formation_enthalpy, entropy, cp, molar_mass;
+};
+constexpr SoluteData kSolutes[2] = {
+    {-407270.0, 115.5, -90.0, molar_mass::NaCl},
+    {-470114.0, 48.1, -102.1, molar_mass::NaOH},
+};
+constexpr double kSoluteTemperatureLow = 273.15, kSoluteTemperatureHigh = 473.15;
+
 }  // namespace
+
+MolarProperties aqueous_solute(Solute solute, double temperature) {
+    require_within(temperature, kSoluteTemperatureLow, kSoluteTemperatureHigh, "aqueous solute: temperature", "K");
+    const auto& d = kSolutes[static_cast<int>(solute)];
+    MolarProperties p{};
+    p.cp = d.cp;
+    p.enthalpy = d.formation_enthalpy + d.cp * (temperature - kStandardTemperature);
+    p.entropy = d.entropy + d.cp * std::log(temperature / kStandardTemperature);
+    p.gibbs = p.enthalpy - temperature * p.entropy;
+    return p;
+}
+
+double solute_molar_mass(Solute solute) { return kSolutes[static_cast<int>(solute)].molar_mass; }
 
 const char* species_name(Species species) { return kData[static_cast<int>(species)].name; }
 

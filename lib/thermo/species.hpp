@@ -27,4 +27,14 @@ TemperatureRange ideal_gas_range(Species species);
 /// IAPWS-IF97 region 2 anchored to the CODATA key values at 298.15 K.
 MolarProperties ideal_gas(Species species, double temperature);
 
+/// Aqueous solutes of the brine cell, standard state 1 mol/kg (ideal dilute).
+enum class Solute { sodium_chloride, sodium_hydroxide };
+
+/// Standard partial molar properties of an aqueous solute at T (298..473 K): NBS tables
+/// (Wagman et al., J. Phys. Chem. Ref. Data 11, Suppl. 2, 1982; from memory), with a
+/// constant partial molar heat capacity. Heats of dilution of concentrated solutions are
+/// not included.
+MolarProperties aqueous_solute(Solute solute, double temperature);
+double solute_molar_mass(Solute solute);  // kg/mol
+
 }  // namespace ely

@@ -17,7 +17,7 @@ execute_process(COMMAND ${CMAKE_COMMAND} --build ${WORK_DIR}/build RESULT_VARIAB
 if(NOT rc EQUAL 0)
   message(FATAL_ERROR "consumer build failed")
 endif()
-execute_process(COMMAND ${WORK_DIR}/build/elyblock_consumer RESULT_VARIABLE rc)
+execute_process(COMMAND ${WORK_DIR}/build/elyblock_consumer ${CONFIG} RESULT_VARIABLE rc)
 if(NOT rc EQUAL 0)
   message(FATAL_ERROR "consumer program failed (${rc})")
 endif()

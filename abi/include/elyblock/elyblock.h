@@ -77,6 +77,73 @@ ELY_API int32_t ely_water_electrolysis_voltages(double temperature_K, double pre
                                                 double pressure_cathode_Pa, double* reversible_V,
                                                 double* thermoneutral_V);
 
+/* ---- the block ---------------------------------------------------------------------
+ * Life cycle: create (from JSON text or a file) → set inputs → solve → get outputs →
+ * set … → solve … → destroy. Outputs are readable only while they belong to the current
+ * inputs: after a successful solve and before the next set (else ELY_ERR_WRONG_STATE).
+ * A failed solve rolls the inputs back to those of the last successful solve, so the
+ * block keeps its last valid state. Variables are addressed by a dense index 0..count-1
+ * (look it up by name with ely_block_find); the set of variables depends on the
+ * technology of the configuration. */
+typedef struct ely_block ely_block;
+
+#define ELY_CAUSALITY_INPUT 0
+#define ELY_CAUSALITY_OUTPUT 1
+#define ELY_CAUSALITY_PARAMETER 2 /* fixed by the configuration; readable, not settable */
+
+/* Description of one variable. The caller sets struct_size = sizeof(ely_variable_info);
+ * later versions of this struct only grow at the end. Strings are owned by the library
+ * and stay valid for the life of the process. */
+typedef struct ely_variable_info {
+    uint32_t struct_size;
+    int32_t causality;       /* ELY_CAUSALITY_* */
+    const char* name;        /* "group.quantity" */
+    const char* unit;        /* SI unit, "1" for dimensionless */
+    const char* description;
+} ely_variable_info;
+
+/* Progress of a long call: return 0 to go on, non-zero to cancel. */
+typedef int32_t (*ely_progress_fn)(size_t done, size_t total, void* user);
+
+/* On failure *out is set to NULL and ely_last_error() names the problem (JSON path). */
+ELY_API int32_t ely_block_create(const char* config_json, ely_block** out);
+ELY_API int32_t ely_block_create_from_file(const char* path, ely_block** out);
+ELY_API int32_t ely_block_clone(const ely_block* block, ely_block** out); /* same inputs and solution */
+ELY_API void ely_block_destroy(ely_block* block);                      /* NULL is a no-op */
+
+ELY_API int32_t ely_block_variable_count(const ely_block* block, int32_t* count);
+ELY_API int32_t ely_block_variable_info(const ely_block* block, int32_t index, ely_variable_info* info);
+ELY_API int32_t ely_block_find(const ely_block* block, const char* name, int32_t* index);
+ELY_API int32_t ely_block_set(ely_block* block, int32_t index, double value);
+ELY_API int32_t ely_block_get(const ely_block* block, int32_t index, double* value);
+
+/* Selects which drive input the solve reads: "current_density", "current", "power",
+ * "hydrogen_rate" or "voltage" (the config's operating.spec is the initial choice). */
+ELY_API int32_t ely_block_set_spec(ely_block* block, const char* spec);
+
+/* Steady state at the current inputs. ELY_OK, ELY_WARNING (an alarm is raised; the
+ * message says which; outputs valid), or an error (block rolled back). */
+ELY_API int32_t ely_block_solve(ely_block* block);
+
+/* Solves n_points operating points in one call without changing the block: for point k the
+ * inputs input_indices[0..n_inputs) take inputs[k*n_inputs + i] (row-major), the block is
+ * solved, and outputs[k*n_outputs + o] receives output_indices[o]; point_status[k] gets the
+ * point's status (outputs of a failed point are NaN). Points are solved in order on one
+ * working copy, each starting from the state the previous one left. Returns ELY_OK,
+ * ELY_WARNING (some point warned), ELY_PARTIAL (some point failed), ELY_ERR_CANCELLED (the
+ * progress callback asked to stop; later points get ELY_ERR_CANCELLED), or an error for bad
+ * arguments (nothing written). progress may be NULL. */
+ELY_API int32_t ely_block_solve_batch(const ely_block* block, size_t n_points, int32_t n_inputs,
+                                      const int32_t* input_indices, const double* inputs, int32_t n_outputs,
+                                      const int32_t* output_indices, double* outputs, int32_t* point_status,
+                                      ely_progress_fn progress, void* user);
+
+/* The solved state as JSON text (UTF-8, NUL-terminated). *length receives the size needed
+ * including the NUL; with buffer NULL and capacity 0 only the size is reported (ELY_OK);
+ * a smaller non-zero capacity gives ELY_ERR_BUFFER_TOO_SMALL, reports the size needed in
+ * *length and writes nothing into buffer. */
+ELY_API int32_t ely_block_report_json(const ely_block* block, char* buffer, size_t capacity, size_t* length);
+
 #ifdef __cplusplus
 }
 #endif

@@ -1,0 +1,232 @@
+// The block calls of the C interface: thin wrappers over ely::Block, each inside guard().
+#include <cmath>
+#include <cstring>
+#include <limits>
+#include <memory>
+#include <string>
+
+#include "config/config.hpp"
+#include "elyblock/elyblock.h"
+#include "guard.hpp"
+#include "unit/block.hpp"
+
+struct ely_block {
+    explicit ely_block(ely::Block b) : model(std::move(b)) {}
+    ely::Block model;
+};
+
+namespace {
+using ely::Error;
+using ely::ErrorKind;
+using ely::capi::guard;
+using ely::capi::require_pointer;
+
+int32_t finish_solve(const ely::SolveOutcome& outcome) {
+    if (outcome.warning) {
+        ely::capi::set_last_error(outcome.message);
+        return ELY_WARNING;
+    }
+    return ELY_OK;
+}
+
+ely::Spec parse_spec(const char* text) {
+    const ely::Spec all[] = {ely::Spec::current_density, ely::Spec::current, ely::Spec::power,
+                             ely::Spec::hydrogen_rate, ely::Spec::voltage};
+    for (auto s : all)
+        if (std::strcmp(text, ely::spec_name(s)) == 0) return s;
+    throw Error(ErrorKind::invalid_argument,
+                std::string("unknown spec '") + text + "'; known: current_density, current, power, hydrogen_rate, voltage");
+}
+}  // namespace
+
+extern "C" {
+
+ELY_API int32_t ely_block_create(const char* config_json, ely_block** out) {
+    return guard([&] {
+        require_pointer(out, "out");
+        *out = nullptr;
+        require_pointer(config_json, "config_json");
+        *out = new ely_block(ely::Block(ely::parse_config(config_json)));
+        return ELY_OK;
+    });
+}
+
+ELY_API int32_t ely_block_create_from_file(const char* path, ely_block** out) {
+    return guard([&] {
+        require_pointer(out, "out");
+        *out = nullptr;
+        require_pointer(path, "path");
+        *out = new ely_block(ely::Block(ely::load_config_file(path)));
+        return ELY_OK;
+    });
+}
+
+ELY_API int32_t ely_block_clone(const ely_block* block, ely_block** out) {
+    return guard([&] {
+        require_pointer(out, "out");
+        *out = nullptr;
+        require_pointer(block, "block");
+        *out = new ely_block(block->model);
+        return ELY_OK;
+    });
+}
+
+ELY_API void ely_block_destroy(ely_block* block) { delete block; }
+
+ELY_API int32_t ely_block_variable_count(const ely_block* block, int32_t* count) {
+    return guard([&] {
+        require_pointer(block, "block");
+        require_pointer(count, "count");
+        *count = block->model.variable_count();
+        return ELY_OK;
+    });
+}
+
+ELY_API int32_t ely_block_variable_info(const ely_block* block, int32_t index, ely_variable_info* info) {
+    return guard([&] {
+        require_pointer(block, "block");
+        require_pointer(info, "info");
+        const size_t v1_size = offsetof(ely_variable_info, description) + sizeof(const char*);
+        if (info->struct_size < v1_size)
+            throw Error(ErrorKind::invalid_argument, "info->struct_size is " + std::to_string(info->struct_size) +
+                                                         "; set it to sizeof(ely_variable_info)");
+        const auto& v = block->model.variable(index);
+        info->causality = static_cast<int32_t>(v.causality);
+        info->name = v.name;
+        info->unit = v.unit;
+        info->description = v.description;
+        return ELY_OK;
+    });
+}
+
+ELY_API int32_t ely_block_find(const ely_block* block, const char* name, int32_t* index) {
+    return guard([&] {
+        require_pointer(block, "block");
+        require_pointer(name, "name");
+        require_pointer(index, "index");
+        *index = block->model.find(name);
+        return ELY_OK;
+    });
+}
+
+ELY_API int32_t ely_block_set(ely_block* block, int32_t index, double value) {
+    return guard([&] {
+        require_pointer(block, "block");
+        block->model.set(index, value);
+        return ELY_OK;
+    });
+}
+
+ELY_API int32_t ely_block_get(const ely_block* block, int32_t index, double* value) {
+    return guard([&] {
+        require_pointer(block, "block");
+        require_pointer(value, "value");
+        *value = block->model.get(index);
+        return ELY_OK;
+    });
+}
+
+ELY_API int32_t ely_block_set_spec(ely_block* block, const char* spec) {
+    return guard([&] {
+        require_pointer(block, "block");
+        require_pointer(spec, "spec");
+        block->model.set_spec(parse_spec(spec));
+        return ELY_OK;
+    });
+}
+
+ELY_API int32_t ely_block_solve(ely_block* block) {
+    return guard([&] {
+        require_pointer(block, "block");
+        return finish_solve(block->model.solve());
+    });
+}
+
+ELY_API int32_t ely_block_solve_batch(const ely_block* block, size_t n_points, int32_t n_inputs,
+                                      const int32_t* input_indices, const double* inputs, int32_t n_outputs,
+                                      const int32_t* output_indices, double* outputs, int32_t* point_status,
+                                      ely_progress_fn progress, void* user) {
+    return guard([&] {
+        require_pointer(block, "block");
+        if (n_inputs < 0 || n_outputs < 0)
+            throw Error(ErrorKind::invalid_argument, "n_inputs and n_outputs must not be negative");
+        if (n_points > 0) {
+            require_pointer(point_status, "point_status");
+            if (n_inputs > 0) { require_pointer(input_indices, "input_indices"); require_pointer(inputs, "inputs"); }
+            if (n_outputs > 0) { require_pointer(output_indices, "output_indices"); require_pointer(outputs, "outputs"); }
+        }
+        // Check every index before writing anything.
+        for (int32_t i = 0; i < n_inputs; ++i) {
+            const auto& info = block->model.variable(input_indices[i]);
+            if (info.causality != ely::Causality::input)
+                throw Error(ErrorKind::invalid_argument, std::string("input_indices[") + std::to_string(i) + "] is '" +
+                                                             info.name + "', which is not an input");
+        }
+        for (int32_t o = 0; o < n_outputs; ++o) block->model.variable(output_indices[o]);
+
+        ely::Block work = block->model;
+        std::string first_failure, first_warning;
+        bool any_warning = false, any_failure = false, cancelled = false;
+        const double nan = std::numeric_limits<double>::quiet_NaN();
+        for (size_t k = 0; k < n_points; ++k) {
+            double* out_row = outputs ? outputs + k * static_cast<size_t>(n_outputs) : nullptr;
+            if (cancelled) {
+                point_status[k] = ELY_ERR_CANCELLED;
+                for (int32_t o = 0; o < n_outputs; ++o) out_row[o] = nan;
+                continue;
+            }
+            const int32_t status = guard([&] {
+                const double* in_row = inputs + k * static_cast<size_t>(n_inputs);
+                for (int32_t i = 0; i < n_inputs; ++i) work.set(input_indices[i], in_row[i]);
+                const int32_t s = finish_solve(work.solve());
+                for (int32_t o = 0; o < n_outputs; ++o) out_row[o] = work.get(output_indices[o]);
+                return s;
+            });
+            point_status[k] = status;
+            if (status < 0 && first_failure.empty())
+                first_failure = "point " + std::to_string(k) + ": " + ely_last_error();
+            if (status > 0 && first_warning.empty())
+                first_warning = "point " + std::to_string(k) + ": " + ely_last_error();
+            if (status < 0) {
+                any_failure = true;
+                for (int32_t o = 0; o < n_outputs; ++o) out_row[o] = nan;
+            } else if (status > 0) {
+                any_warning = true;
+            }
+            if (progress && ((k + 1) % 1024 == 0 || k + 1 == n_points) && progress(k + 1, n_points, user) != 0)
+                cancelled = true;
+        }
+        if (cancelled && n_points > 0 && point_status[n_points - 1] == ELY_ERR_CANCELLED) {
+            ely::capi::set_last_error("batch cancelled by the progress callback");
+            return ELY_ERR_CANCELLED;
+        }
+        if (any_failure) { ely::capi::set_last_error("some points failed; first: " + first_failure); return ELY_PARTIAL; }
+        if (any_warning) { ely::capi::set_last_error("some points warned; first: " + first_warning); return ELY_WARNING; }
+        return ELY_OK;
+    });
+}
+
+ELY_API int32_t ely_block_report_json(const ely_block* block, char* buffer, size_t capacity, size_t* length) {
+    return guard([&] {
+        require_pointer(block, "block");
+        require_pointer(length, "length");
+        const std::string text = block->model.report_json();
+        const size_t needed = text.size() + 1;
+        if (buffer == nullptr || capacity == 0) {
+            if (buffer == nullptr && capacity != 0)
+                throw Error(ErrorKind::invalid_argument, "buffer is NULL but capacity is not 0");
+            *length = needed;
+            return ELY_OK;
+        }
+        if (capacity < needed) {
+            *length = needed;
+            throw Error(ErrorKind::buffer_too_small,
+                        "buffer of " + std::to_string(capacity) + " bytes is too small; " + std::to_string(needed) + " needed");
+        }
+        std::memcpy(buffer, text.c_str(), needed);
+        *length = needed;
+        return ELY_OK;
+    });
+}
+
+}  // extern "C"

@@ -1,0 +1,315 @@
+// Custom cell from a table of competing half-reactions (PHYSICS.md, "Competing reactions").
+// At each electrode all reactions see one electrode potential Φ; each reaction k has its own
+// Nernst potential E_k and kinetics j_k(η_k), and Σ_k j_k(Φ) = j is solved for Φ by a bracketed,
+// safeguarded Newton iteration (bisection whenever Newton leaves the bracket or stalls).
+#include "cells/custom.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <fmt/format.h>
+#include <limits>
+
+#include "thermo/check.hpp"
+#include "thermo/constants.hpp"
+#include "thermo/reaction.hpp"
+
+namespace ely {
+namespace {
+
+// Exponent arguments are clamped here: e^600 ≈ 4e260 keeps every current finite (and far above
+// any current density the envelope admits) while the sums stay monotone.
+constexpr double kExponentClamp = 600.0;
+double clamped_exp(double x) { return std::exp(std::clamp(x, -kExponentClamp, kExponentClamp)); }
+
+struct CurrentAndSlope {
+    double current;  // A/m²
+    double slope;    // dj/dη, A/(m² V)
+};
+
+// j = j0 (E_f − E_b)/(1 + r E_f), r = j0/j_lim, E_f = e^{a η}, E_b = e^{−b η}; written so that no
+// intermediate overflows: for η >= 0 numerator and denominator are divided by E_f (and the slope
+// by E_f²).
+CurrentAndSlope limited_bv(double eta, double j0, double a, double b, double r) {
+    if (eta >= 0.0) {
+        const double emx = clamped_exp(-a * eta);             // 1/E_f
+        const double emxy = clamped_exp(-(a + b) * eta);      // E_b/E_f
+        const double den = emx + r;
+        const double current = j0 * (1.0 - emxy) / den;
+        const double slope = j0 * (a * emx + b * emxy * emx + r * (a + b) * emxy) / (den * den);
+        return {current, slope};
+    }
+    const double ef = clamped_exp(a * eta), eb = clamped_exp(-b * eta);
+    const double den = 1.0 + r * ef;
+    return {j0 * (ef - eb) / den, j0 * (a * ef + b * eb + r * (a + b) * ef * eb) / (den * den)};
+}
+
+const char* side_name(bool anode) { return anode ? "anode" : "cathode"; }
+
+struct ElectrodeSolution {
+    double potential;  // Φ vs SHE, V
+    std::size_t main;  // index (within the electrode) of the reaction carrying the largest current
+};
+
+class CustomCell final : public Cell {
+public:
+    explicit CustomCell(CustomCellSpec spec) : spec_(std::move(spec)) {}
+    Technology technology() const override { return Technology::custom; }
+    const Envelope& envelope() const override { return spec_.envelope; }
+    std::unique_ptr<Cell> clone() const override { return std::make_unique<CustomCell>(*this); }
+    double current_density_limit(const OperatingPoint&) const override {
+        return std::min({spec_.envelope.current_density_max, limit_sum(spec_.anode), limit_sum(spec_.cathode)});
+    }
+    CellResult evaluate(const OperatingPoint& point) const override;
+
+private:
+    static double limit_sum(const std::vector<HalfReaction>& reactions) {
+        double s = 0.0;
+        for (const auto& r : reactions) s += r.limiting_current_density;
+        return s;
+    }
+    // Solves Σ j_k = j at one electrode. `u_k` holds the reactions' equilibrium potentials
+    // expressed in the electrode's driving variable u (u = Φ at the anode, u = −Φ at the
+    // cathode, so that η_k = u − u_k); on return it holds the shares j_k/Σj_k.
+    ElectrodeSolution solve_electrode(const std::vector<HalfReaction>& reactions, bool anode, double j, double t,
+                                      double* u_k) const;
+    CustomCellSpec spec_;
+};
+
+ElectrodeSolution CustomCell::solve_electrode(const std::vector<HalfReaction>& reactions, bool anode, double j,
+                                              double t, double* u_k) const {
+    const std::size_t n = reactions.size();
+    const double f = kFaraday / (kGasConstant * t);
+    const auto total = [&](double u) {
+        CurrentAndSlope sum{0.0, 0.0};
+        for (std::size_t k = 0; k < n; ++k) {
+            const auto& kin = reactions[k].kinetics;
+            const double j0 = exchange_current_density(kin, t);
+            const auto c = limited_bv(u - u_k[k], j0, kin.alpha_forward * f, kin.alpha_backward * f,
+                                      j0 / reactions[k].limiting_current_density);
+            sum.current += c.current;
+            sum.slope += c.slope;
+        }
+        return sum;
+    };
+
+    // Bracket: at the lowest equilibrium potential every reaction runs at η <= 0, so Σ j_k <= 0 <= j;
+    // the upper end widens geometrically until Σ j_k >= j (j is below the sum of the limits).
+    double lo = *std::min_element(u_k, u_k + n), hi = *std::max_element(u_k, u_k + n) + 0.05;
+    double u = lo;
+    double g_lo = total(lo).current - j;
+    bool converged = g_lo == 0.0;
+    if (!converged) {
+        int widen = 0;
+        while (total(hi).current - j < 0.0) {
+            const double width = hi - lo;
+            lo = hi;
+            hi += 2.0 * width;
+            if (++widen > 200)
+                throw Error(ErrorKind::no_convergence,
+                            fmt::format("custom cell: no {} potential found that carries {:g} A/m2", side_name(anode), j));
+        }
+        u = 0.5 * (lo + hi);
+        double last_abs_g = std::numeric_limits<double>::infinity();
+        bool force_bisection = false;
+        for (int iter = 0; iter < 400; ++iter) {
+            const auto c = total(u);
+            const double g = c.current - j;
+            if (g == 0.0) { converged = true; break; }
+            if (g > 0.0) hi = u; else lo = u;
+            double next = force_bisection || !(c.slope > 0.0) ? 0.5 * (lo + hi) : u - g / c.slope;
+            if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+            force_bisection = std::fabs(g) > 0.5 * last_abs_g;  // Newton stalled: bisect next time
+            last_abs_g = std::fabs(g);
+            const double scale = std::max(1.0, std::fabs(next));
+            if (std::fabs(next - u) <= 4e-16 * scale || hi - lo <= 4e-16 * scale) {
+                u = next;
+                converged = true;
+                break;
+            }
+            u = next;
+        }
+    }
+    if (!converged)
+        throw Error(ErrorKind::no_convergence,
+                    fmt::format("custom cell: {} potential solve did not converge for {:g} A/m2", side_name(anode), j));
+
+    // Shares: j_k/Σj_k (Σ j_k = j to rounding); at j = 0 the differential shares dj_k/du / Σ dj_k/du,
+    // the split of a small added current.
+    double sum_current = 0.0, sum_slope = 0.0, largest = -std::numeric_limits<double>::infinity();
+    std::size_t main = 0;
+    for (std::size_t k = 0; k < n; ++k) {
+        const auto& kin = reactions[k].kinetics;
+        const double j0 = exchange_current_density(kin, t);
+        const auto c = limited_bv(u - u_k[k], j0, kin.alpha_forward * f, kin.alpha_backward * f,
+                                  j0 / reactions[k].limiting_current_density);
+        sum_current += c.current;
+        sum_slope += c.slope;
+        if (c.current > largest) { largest = c.current; main = k; }
+    }
+    const bool differential = !(j > 0.0 && sum_current > 0.0);
+    for (std::size_t k = 0; k < n; ++k) {
+        const auto& kin = reactions[k].kinetics;
+        const double j0 = exchange_current_density(kin, t);
+        const auto c = limited_bv(u - u_k[k], j0, kin.alpha_forward * f, kin.alpha_backward * f,
+                                  j0 / reactions[k].limiting_current_density);
+        u_k[k] = differential ? c.slope / sum_slope : c.current / sum_current;
+    }
+    return {anode ? u : -u, main};
+}
+
+CellResult CustomCell::evaluate(const OperatingPoint& p) const {
+    CellResult r;
+    r.warnings = check_envelope(spec_.envelope, p, "custom");
+    const double t = p.temperature, j = p.current_density;
+    for (int side = 0; side < 2; ++side) {
+        const bool anode = side == 0;
+        const double limit = limit_sum(anode ? spec_.anode : spec_.cathode);
+        if (j >= limit)
+            throw Error(ErrorKind::out_of_range,
+                        fmt::format("custom cell: current density {:g} A/m2 is at or above the sum of the limiting "
+                                    "current densities of the {} reactions, {:g} A/m2",
+                                    j, side_name(anode), limit));
+        if (j > 0.95 * limit) r.warnings |= kWarnNearLimitingCurrent;
+    }
+
+    const std::size_t na = spec_.anode.size(), nc = spec_.cathode.size();
+    auto& shares = r.reaction_current_efficiency;
+    shares.assign(na + nc, 0.0);  // the one allocation of evaluate(); used as scratch first
+    for (std::size_t k = 0; k < na; ++k) shares[k] = half_reaction_equilibrium_potential(spec_.anode[k], true, t);
+    for (std::size_t k = 0; k < nc; ++k)
+        shares[na + k] = -half_reaction_equilibrium_potential(spec_.cathode[k], false, t);
+    // The solves overwrite the scratch with the shares; the main reactions' potentials are recomputed below.
+    const auto anode_solution = solve_electrode(spec_.anode, true, j, t, shares.data());
+    const auto cathode_solution = solve_electrode(spec_.cathode, false, j, t, shares.data() + na);
+    const auto& anode_main = spec_.anode[anode_solution.main];
+    const auto& cathode_main = spec_.cathode[cathode_solution.main];
+    const double e_anode = half_reaction_equilibrium_potential(anode_main, true, t);
+    const double e_cathode = half_reaction_equilibrium_potential(cathode_main, false, t);
+
+    r.current_density = j;
+    r.reversible_voltage = e_anode - e_cathode;
+    r.activation_anode = anode_solution.potential - e_anode;
+    r.activation_cathode = e_cathode - cathode_solution.potential;
+    r.ohmic = j * spec_.area_specific_resistance;
+    r.concentration = 0.0;  // transport limits act inside each reaction's kinetics (activation terms)
+    r.voltage = r.reversible_voltage + r.activation_anode + r.activation_cathode + r.ohmic + r.concentration;
+
+    if (std::isfinite(spec_.thermoneutral_voltage)) {
+        r.thermoneutral_voltage = spec_.thermoneutral_voltage;
+    } else if (anode_main.product == "O2" && cathode_main.product == "H2" && t >= 298.0 && t <= 623.15) {
+        r.thermoneutral_voltage = thermoneutral_voltage_hhv(t);
+    } else {
+        r.thermoneutral_voltage = 0.0;  // unknown
+    }
+
+    // Efficiencies and fluxes.
+    r.faraday_efficiency = shares[na];
+    for (std::size_t k = 0; k < nc; ++k)
+        if (spec_.cathode[k].product == "H2") { r.faraday_efficiency = shares[na + k]; break; }
+    for (std::size_t k = 0; k < na + nc; ++k) {
+        const bool anode = k < na;
+        const auto& reaction = anode ? spec_.anode[k] : spec_.cathode[k - na];
+        const double rate = custom_product_rate(reaction, shares[k], j);
+        Fluxes& out = anode ? r.anode_out : r.cathode_out;
+        if (reaction.product == "H2") out[kH2] += rate;
+        else if (reaction.product == "O2") {
+            out[kO2] += rate;
+            if (anode) r.consumed[kH2O] += 2.0 * rate;  // 2 H2O → O2 + 4 H⁺ + 4 e⁻
+        } else if (reaction.product == "Cl2") out[kCl2] += rate;
+    }
+    r.gases_saturated = true;
+    return r;
+}
+
+void check_reaction(const HalfReaction& h, bool anode, std::size_t index) {
+    const auto where = [&](const char* field) {
+        return fmt::format("custom cell: {} reaction {} '{}': {}", side_name(anode), index + 1, h.name, field);
+    };
+    if (h.name.empty()) throw Error(ErrorKind::invalid_argument, where("name is empty"));
+    if (h.product.empty()) throw Error(ErrorKind::invalid_argument, where("product is empty"));
+    if (h.electrons < 1)
+        throw Error(ErrorKind::invalid_argument, where("electrons") + fmt::format(" {} must be at least 1", h.electrons));
+    require_finite(h.standard_potential, where("standard potential").c_str());
+    require_finite(h.standard_potential_temperature_coefficient, where("standard potential temperature coefficient").c_str());
+    require_positive(h.reactant_activity, where("reactant activity").c_str());
+    require_positive(h.product_activity, where("product activity").c_str());
+    require_positive(h.kinetics.exchange_current_density, where("exchange current density").c_str());
+    require_finite(h.kinetics.activation_energy, where("activation energy").c_str());
+    require_positive(h.kinetics.reference_temperature, where("kinetics reference temperature").c_str());
+    require_positive(h.kinetics.alpha_forward, where("alpha forward").c_str());
+    require_positive(h.kinetics.alpha_backward, where("alpha backward").c_str());
+    if (!(h.limiting_current_density > 0.0))  // +inf allowed, NaN not
+        throw Error(ErrorKind::invalid_argument,
+                    where("limiting current density") + fmt::format(" {} must be positive (or inf for none)",
+                                                                    h.limiting_current_density));
+    require_finite(h.product_molar_mass, where("product molar mass").c_str());
+    if (h.product_molar_mass < 0.0)
+        throw Error(ErrorKind::invalid_argument,
+                    where("product molar mass") + fmt::format(" {:g} kg/mol is negative", h.product_molar_mass));
+}
+
+}  // namespace
+
+double limited_butler_volmer_current(double overpotential, double j0, double alpha_forward, double alpha_backward,
+                                     double limiting_current_density, double temperature) {
+    require_finite(overpotential, "overpotential");
+    require_positive(j0, "exchange current density");
+    require_positive(alpha_forward, "forward transfer coefficient");
+    require_positive(alpha_backward, "backward transfer coefficient");
+    require_positive(temperature, "temperature");
+    if (!(limiting_current_density > 0.0))
+        throw Error(ErrorKind::invalid_argument,
+                    fmt::format("limiting current density {} must be positive (or inf for none)", limiting_current_density));
+    const double f = kFaraday / (kGasConstant * temperature);
+    return limited_bv(overpotential, j0, alpha_forward * f, alpha_backward * f, j0 / limiting_current_density).current;
+}
+
+double half_reaction_equilibrium_potential(const HalfReaction& h, bool at_anode, double temperature) {
+    const double e0 = h.standard_potential + h.standard_potential_temperature_coefficient * (temperature - kStandardTemperature);
+    // a_ox/a_red: the reactant is the oxidized species at the cathode, the reduced one at the anode.
+    const double ratio = at_anode ? h.product_activity / h.reactant_activity : h.reactant_activity / h.product_activity;
+    return e0 + kGasConstant * temperature / (h.electrons * kFaraday) * std::log(ratio);
+}
+
+double custom_product_rate(const HalfReaction& h, double share, double current_density) {
+    return share * current_density / (h.electrons * kFaraday);
+}
+
+std::vector<double> custom_product_rates(const CustomCellSpec& spec, const CellResult& result) {
+    const std::size_t na = spec.anode.size(), nc = spec.cathode.size();
+    if (result.reaction_current_efficiency.size() != na + nc)
+        throw Error(ErrorKind::invalid_argument,
+                    fmt::format("custom product rates: the result has {} reaction shares, the spec {} reactions",
+                                result.reaction_current_efficiency.size(), na + nc));
+    std::vector<double> rates(na + nc);
+    for (std::size_t k = 0; k < na + nc; ++k)
+        rates[k] = custom_product_rate(k < na ? spec.anode[k] : spec.cathode[k - na], result.reaction_current_efficiency[k],
+                                       result.current_density);
+    return rates;
+}
+
+std::unique_ptr<Cell> make_custom_cell(const CustomCellSpec& spec) {
+    if (spec.anode.empty()) throw Error(ErrorKind::invalid_argument, "custom cell: the anode has no reactions");
+    if (spec.cathode.empty()) throw Error(ErrorKind::invalid_argument, "custom cell: the cathode has no reactions");
+    for (std::size_t k = 0; k < spec.anode.size(); ++k) check_reaction(spec.anode[k], true, k);
+    for (std::size_t k = 0; k < spec.cathode.size(); ++k) check_reaction(spec.cathode[k], false, k);
+    require_finite(spec.area_specific_resistance, "custom cell: area-specific resistance");
+    if (spec.area_specific_resistance < 0.0)
+        throw Error(ErrorKind::invalid_argument,
+                    fmt::format("custom cell: area-specific resistance {:g} ohm m2 is negative", spec.area_specific_resistance));
+    const Envelope& e = spec.envelope;
+    require_positive(e.temperature_min, "custom cell envelope: minimum temperature");
+    require_positive(e.pressure_min, "custom cell envelope: minimum pressure");
+    require_positive(e.current_density_max, "custom cell envelope: maximum current density");
+    require_finite(e.temperature_max, "custom cell envelope: maximum temperature");
+    require_finite(e.pressure_max, "custom cell envelope: maximum pressure");
+    require_finite(e.temperature_fit_min, "custom cell envelope: fit minimum temperature");
+    require_finite(e.temperature_fit_max, "custom cell envelope: fit maximum temperature");
+    if (e.temperature_min > e.temperature_max || e.pressure_min > e.pressure_max ||
+        e.temperature_fit_min > e.temperature_fit_max)
+        throw Error(ErrorKind::invalid_argument, "custom cell envelope: a minimum is above its maximum");
+    if (!std::isnan(spec.thermoneutral_voltage)) require_finite(spec.thermoneutral_voltage, "custom cell: thermoneutral voltage");
+    return std::make_unique<CustomCell>(spec);
+}
+
+}  // namespace ely

@@ -1,0 +1,75 @@
+#pragma once
+// The custom cell: a table of half-reactions per electrode that compete for the current
+// (PHYSICS.md, "Competing reactions"). The config layer fills these structures; equations,
+// sign conventions and the choice of the mass-transport form: docs/cells-brine-custom.md.
+//
+// Sign convention: at each electrode the electrolysis direction counts positive — oxidation
+// currents at the anode, reduction currents at the cathode. A reaction driven backwards by
+// the common electrode potential (a metal redissolving while hydrogen evolves, say) carries a
+// negative current and a negative share; the shares of one electrode always sum to 1.
+#include <limits>
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "cells/cell.hpp"
+#include "electrochem/kinetics.hpp"
+
+namespace ely {
+
+struct HalfReaction {
+    std::string name;     // e.g. "zinc deposition"
+    std::string product;  // e.g. "Zn"; "H2", "O2" and "Cl2" also fill the flux arrays
+    int electrons = 2;    // n per formula unit of product
+    /// E° vs SHE at 298.15 K, V: the reduction potential as tabulated (CRC electrochemical series).
+    double standard_potential = 0.0;
+    double standard_potential_temperature_coefficient = 0.0;  // dE°/dT, V/K (0: E° held at its 25 °C value)
+    /// Activities in the Nernst equation E = E° + (RT/nF)·ln(a_ox/a_red), each the product of
+    /// its species' activities raised to their stoichiometric coefficients. Reactant: the species
+    /// consumed in the electrolysis direction — the oxidized one at the cathode (e.g. Zn²⁺), the
+    /// reduced one at the anode (e.g. Cl⁻ squared); product: the other side (solid or gas at unit
+    /// activity unless given).
+    double reactant_activity = 1.0;
+    double product_activity = 1.0;
+    /// Kinetics in the electrolysis direction of the electrode (alpha_forward: oxidation at the
+    /// anode, reduction at the cathode); j0 on the geometric area, Arrhenius in T.
+    ElectrodeKinetics kinetics{1.0, 0.0, 298.15, 0.5, 0.5};
+    /// Mass-transport limit of the reactant, A/m² (+inf: none). It makes the share of a metal
+    /// fall at low ion concentration.
+    double limiting_current_density = std::numeric_limits<double>::infinity();
+    double product_molar_mass = 0.0;  // kg/mol, for product mass rates (0 if not needed)
+};
+
+struct CustomCellSpec {
+    std::vector<HalfReaction> anode;    // at least one
+    std::vector<HalfReaction> cathode;  // at least one
+    double area_specific_resistance = 0.0;  // Ω·m², electrolyte + separator + contacts
+    Envelope envelope{298.15, 373.15, 0.5e5, 5.0e5, 1.0e4, 298.15, 373.15};
+    /// Thermoneutral voltage to report, V. NaN (the default): the liquid-water (HHV) value when the
+    /// main products are H2 and O2, otherwise 0, meaning unknown — the unit layer's energy balance
+    /// does not use this number.
+    double thermoneutral_voltage = std::numeric_limits<double>::quiet_NaN();
+};
+
+/// Checks the table (names, electrons >= 1, finite positive activities, j0 > 0, α > 0, limits > 0,
+/// ASR >= 0, a sane envelope) and builds the cell; errors name the electrode, reaction and field.
+std::unique_ptr<Cell> make_custom_cell(const CustomCellSpec& spec);
+
+/// Current through one reaction k at electrode potential Φ relative to its equilibrium
+/// potential E_k, in the electrolysis direction (η = Φ − E_k at the anode, E_k − Φ at the
+/// cathode), Butler–Volmer with the reactant's mass-transport limit in the exact form
+/// j = j0 (e^{α_f f η} − e^{−α_b f η}) / (1 + (j0/j_lim) e^{α_f f η}), f = F/(RT).
+double limited_butler_volmer_current(double overpotential, double j0, double alpha_forward, double alpha_backward,
+                                     double limiting_current_density, double temperature);
+
+/// Equilibrium (Nernst) potential of a half-reaction at T vs SHE, V.
+double half_reaction_equilibrium_potential(const HalfReaction& reaction, bool at_anode, double temperature);
+
+/// Product molar rate of reaction k, mol/(m² s): share_k·j/(n_k F).
+double custom_product_rate(const HalfReaction& reaction, double share, double current_density);
+
+/// Product molar rates of every reaction of the spec (anode reactions first, then cathode),
+/// mol/(m² s), from a result of the cell built from that spec.
+std::vector<double> custom_product_rates(const CustomCellSpec& spec, const CellResult& result);
+
+}  // namespace ely

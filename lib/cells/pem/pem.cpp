@@ -1,0 +1,203 @@
+// Proton-exchange-membrane (PEM) water electrolysis cell.
+//
+// voltage = E_rev + η_act,anode + η_act,cathode + η_ohm + η_conc, each part computed on its own:
+//   E_rev   Nernst with the wet product gases (liquid water, a_w = 1), HHV thermoneutral voltage;
+//   η_act   Butler–Volmer (or Tafel) per electrode with an Arrhenius exchange current density;
+//   η_ohm   j·(δ/σ_Springer(λ, T) + ASR_contact);
+//   η_conc  −(RT/2F)·ln(1 − j/j_lim).
+// Gas crossover: H2 permeates cathode → anode (diffusion plus a Darcy term when the cathode
+// is above the anode pressure) and leaves with the oxygen; O2 permeates anode → cathode, where
+// a fraction recombines with hydrogen on the catalyst (forming water) and the rest stays in
+// the hydrogen. Equations, defaults and sources: docs/cells-water.md.
+#include <algorithm>
+#include <cmath>
+#include <fmt/format.h>
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "cells/technologies.hpp"
+#include "electrochem/conduction.hpp"
+#include "electrochem/crossover.hpp"
+#include "electrochem/kinetics.hpp"
+#include "thermo/check.hpp"
+#include "thermo/constants.hpp"
+#include "thermo/reaction.hpp"
+#include "thermo/water.hpp"
+
+namespace ely {
+namespace {
+
+constexpr double kReferenceTemperature = 353.15;  // K, where j0 and permeabilities are given
+
+const std::vector<ParameterInfo> kPemParameters = {
+    {"membrane_thickness", "m", 177.8e-6, 10e-6, 1e-3, "membrane thickness",
+     "7 mil = 177.8 um perfluorosulfonic acid membrane, the long-standing reference grade (common practice)"},
+    {"membrane_water_content", "1", 21.0, 2.0, 25.0,
+     "membrane water content lambda, mol H2O per mol SO3H, for the Springer conductivity",
+     "liquid-equilibrated membrane, lambda about 21-22 (Springer et al., J. Electrochem. Soc. 138 (1991) 2334; from memory)"},
+    {"contact_resistance", "ohm m2", 5e-6, 0.0, 1e-3,
+     "electronic and contact area-specific resistance of plates, porous transport layers and coatings",
+     "typical value, from memory (0.05 ohm cm2)"},
+    {"anode_exchange_current_density", "A/m2", 1e-3, 1e-9, 1e3,
+     "oxygen evolution exchange current density at 353.15 K, geometric area",
+     "iridium-oxide anodes, order 1e-7 A/cm2 geometric (Carmo et al., Int. J. Hydrogen Energy 38 (2013) 4901; from memory)"},
+    {"anode_activation_energy", "J/mol", 60e3, 0.0, 200e3, "activation energy of the anode exchange current density",
+     "typical value, from memory"},
+    {"anode_transfer_coefficient_forward", "1", 1.5, 0.05, 4.0,
+     "anodic (oxygen evolution) transfer coefficient",
+     "Tafel slope 2.303RT/(alpha F) = 47 mV/dec at 80 C, within the 40-60 mV/dec of iridium-oxide anodes "
+     "(Bernt & Gasteiger, J. Electrochem. Soc. 163 (2016) F3179; from memory)"},
+    {"anode_transfer_coefficient_backward", "1", 1.5, 0.05, 4.0,
+     "transfer coefficient of the reverse (oxygen reduction) direction at the anode; matters only near equilibrium",
+     "typical value, from memory (equal to the forward value: closed-form Butler-Volmer)"},
+    {"cathode_exchange_current_density", "A/m2", 1e4, 1e-3, 1e6,
+     "hydrogen evolution exchange current density at 353.15 K, geometric area (roughness included)",
+     "typical value, from memory: hydrogen evolution on carbon-supported platinum is fast, order 1 A/cm2 geometric at 80 C"},
+    {"cathode_activation_energy", "J/mol", 20e3, 0.0, 200e3, "activation energy of the cathode exchange current density",
+     "typical value, from memory"},
+    {"cathode_transfer_coefficient_forward", "1", 0.5, 0.05, 4.0, "cathodic (hydrogen evolution) transfer coefficient",
+     "typical value, from memory"},
+    {"cathode_transfer_coefficient_backward", "1", 0.5, 0.05, 4.0,
+     "transfer coefficient of the reverse (hydrogen oxidation) direction at the cathode", "typical value, from memory"},
+    {"kinetics_model", "1", 0.0, 0.0, 1.0, "electrode kinetics: 0 = Butler-Volmer, 1 = Tafel", "model choice"},
+    {"limiting_current_density", "A/m2", 6e4, 1e3, 1e6,
+     "limiting current density of the mass-transport (concentration) loss", "typical value, from memory (6 A/cm2)"},
+    {"h2_permeability", "mol/(m s Pa)", 2e-14, 0.0, 1e-11,
+     "hydrogen permeability of the hydrated membrane at 353.15 K",
+     "order of published values for hydrated perfluorosulfonic acid membranes near 80 C (Ito et al., Int. J. Hydrogen "
+     "Energy 36 (2011) 10527; Schalenbach et al., J. Phys. Chem. C 119 (2015) 25145; from memory)"},
+    {"h2_permeability_activation_energy", "J/mol", 20e3, 0.0, 100e3, "activation energy of the hydrogen permeability",
+     "typical value, from memory"},
+    {"o2_permeability", "mol/(m s Pa)", 1e-14, 0.0, 1e-11, "oxygen permeability of the hydrated membrane at 353.15 K",
+     "about half the hydrogen permeability (Schalenbach et al., J. Phys. Chem. C 119 (2015) 25145; from memory)"},
+    {"o2_permeability_activation_energy", "J/mol", 25e3, 0.0, 100e3, "activation energy of the oxygen permeability",
+     "typical value, from memory"},
+    {"h2_darcy_coefficient", "mol/(m s Pa2)", 2e-22, 0.0, 1e-18,
+     "pressure-driven hydrogen crossover K = kappa S/mu: N = K p_H2 (p_c - p_a)/delta",
+     "kappa ~ 1e-20 m2 hydraulic permeability of the membrane, S ~ 7e-6 mol/(m3 Pa) hydrogen solubility in water "
+     "near 80 C, mu = 3.55e-4 Pa s water viscosity at 80 C (typical values, from memory)"},
+    {"o2_recombination_fraction", "1", 1.0, 0.0, 1.0,
+     "fraction of the oxygen permeating to the cathode that recombines with hydrogen on the catalyst (forming water)",
+     "typical assumption, from memory: platinum catalyses the recombination"},
+    {"electroosmotic_drag", "1", 2.5, 0.0, 10.0,
+     "electro-osmotic drag coefficient, mol H2O carried anode to cathode per mol H+",
+     "liquid-equilibrated membrane (Zawodzinski et al., J. Electrochem. Soc. 140 (1993) 1981; from memory)"},
+};
+
+uint32_t read_switch(const ParameterValues& v, const char* key) {
+    const double x = v.get(key);
+    if (x != 0.0 && x != 1.0)
+        throw Error(ErrorKind::invalid_argument, fmt::format("{} is {:g}; it must be 0 or 1", key, x));
+    return static_cast<uint32_t>(x);
+}
+
+ElectrodeKinetics read_kinetics(const ParameterValues& v, const char* electrode) {
+    const std::string e(electrode);
+    return {v.get(e + "_exchange_current_density"), v.get(e + "_activation_energy"), kReferenceTemperature,
+            v.get(e + "_transfer_coefficient_forward"), v.get(e + "_transfer_coefficient_backward")};
+}
+
+double activation_overpotential(const ElectrodeKinetics& k, bool tafel, double j, double t) {
+    const double j0 = exchange_current_density(k, t);
+    return tafel ? tafel_overpotential(j, j0, k.alpha_forward, t)
+                 : butler_volmer_overpotential(j, j0, k.alpha_forward, k.alpha_backward, t);
+}
+
+class PemCell final : public Cell {
+public:
+    explicit PemCell(const ParameterValues& v)
+        : thickness_(v.get("membrane_thickness")),
+          water_content_(v.get("membrane_water_content")),
+          contact_resistance_(v.get("contact_resistance")),
+          anode_(read_kinetics(v, "anode")),
+          cathode_(read_kinetics(v, "cathode")),
+          tafel_(read_switch(v, "kinetics_model") == 1),
+          limiting_current_density_(v.get("limiting_current_density")),
+          h2_{v.get("h2_permeability"), v.get("h2_permeability_activation_energy"), kReferenceTemperature},
+          o2_{v.get("o2_permeability"), v.get("o2_permeability_activation_energy"), kReferenceTemperature},
+          darcy_(v.get("h2_darcy_coefficient")),
+          recombination_(v.get("o2_recombination_fraction")),
+          drag_(v.get("electroosmotic_drag")) {}
+
+    Technology technology() const override { return Technology::pem; }
+    const Envelope& envelope() const override { return envelope_; }
+    std::unique_ptr<Cell> clone() const override { return std::make_unique<PemCell>(*this); }
+
+    double current_density_limit(const OperatingPoint&) const override {
+        return std::min(envelope_.current_density_max, limiting_current_density_ * (1.0 - 1e-9));
+    }
+
+    CellResult evaluate(const OperatingPoint& p) const override {
+        CellResult r;
+        r.warnings = check_envelope(envelope_, p, "pem");
+        const double t = p.temperature, j = p.current_density;
+        r.current_density = j;
+        r.reversible_voltage = reversible_voltage_liquid_water(t, p.pressure_anode, p.pressure_cathode, 1.0);
+        r.thermoneutral_voltage = thermoneutral_voltage_hhv(t);
+        r.gases_saturated = true;
+        r.water_activity_anode = r.water_activity_cathode = 1.0;
+        if (j == 0.0) {  // open circuit: no gas produced, crossover not described by the steady model
+            r.voltage = r.reversible_voltage;
+            r.faraday_efficiency = 0.0;
+            return r;
+        }
+
+        r.concentration = concentration_overpotential(j, limiting_current_density_, t, 2);
+        if (j > 0.95 * limiting_current_density_) r.warnings |= kWarnNearLimitingCurrent;
+        r.activation_anode = activation_overpotential(anode_, tafel_, j, t);
+        r.activation_cathode = activation_overpotential(cathode_, tafel_, j, t);
+        const double sigma = membrane_conductivity_springer(water_content_, t);
+        r.ohmic = j * (thickness_ / sigma + contact_resistance_);
+        r.voltage = r.reversible_voltage + r.activation_anode + r.activation_cathode + r.ohmic + r.concentration;
+
+        // Crossover driven by the partial pressures of the wet gases (saturated at T, a_w = 1).
+        const double p_sat = water_saturation_pressure(t);
+        const double p_h2 = p.pressure_cathode - p_sat, p_o2 = p.pressure_anode - p_sat;
+        const double n_h2 = permeation_flux(gas_permeability(h2_, t), p_h2, thickness_) +
+                            darcy_gas_flux(darcy_, p_h2, p.pressure_cathode - p.pressure_anode, thickness_);
+        const double n_o2 = permeation_flux(gas_permeability(o2_, t), p_o2, thickness_);
+        const double n_o2_recombined = recombination_ * n_o2;
+
+        const double h2_made = j / (2.0 * kFaraday), o2_made = j / (4.0 * kFaraday);
+        const double h2_cathode = h2_made - n_h2 - 2.0 * n_o2_recombined;
+        const double o2_anode = o2_made - n_o2;
+        if (!(h2_cathode > 0.0 && o2_anode > 0.0)) {
+            const double j_min = std::max(2.0 * kFaraday * (n_h2 + 2.0 * n_o2_recombined), 4.0 * kFaraday * n_o2);
+            throw Error(ErrorKind::out_of_range,
+                        fmt::format("pem cell: current density {:g} A/m2 is at or below the minimum {:g} A/m2 at which "
+                                    "the gas produced exceeds the gas crossover ({:g} K, anode {:g} Pa, cathode {:g} Pa)",
+                                    j, j_min, t, p.pressure_anode, p.pressure_cathode));
+        }
+        r.cathode_out[kH2] = h2_cathode;
+        r.cathode_out[kO2] = n_o2 - n_o2_recombined;
+        r.anode_out[kO2] = o2_anode;
+        r.anode_out[kH2] = n_h2;
+        // Hydrogen balance: every H2 molecule leaving (either side) came from one reacted H2O;
+        // recombined water returns to the water loop.
+        r.consumed[kH2O] = r.cathode_out[kH2] + r.anode_out[kH2];
+
+        r.faraday_efficiency = h2_cathode / h2_made;
+        r.h2_in_o2 = r.anode_out[kH2] / (r.anode_out[kO2] + r.anode_out[kH2]);
+        r.o2_in_h2 = r.cathode_out[kO2] / (r.cathode_out[kH2] + r.cathode_out[kO2]);
+        r.water_drag = drag_ * j / kFaraday;
+        return r;
+    }
+
+private:
+    Envelope envelope_{298.15, 373.15, 8e4, 1e7, 5e4, 323.15, 363.15};
+    double thickness_, water_content_, contact_resistance_;
+    ElectrodeKinetics anode_, cathode_;
+    bool tafel_;
+    double limiting_current_density_;
+    GasPermeability h2_, o2_;
+    double darcy_, recombination_, drag_;
+};
+
+}  // namespace
+
+const std::vector<ParameterInfo>& pem_parameters() { return kPemParameters; }
+
+std::unique_ptr<Cell> make_pem_cell(const ParameterValues& values) { return std::make_unique<PemCell>(values); }
+
+}  // namespace ely

@@ -1,0 +1,185 @@
+// Solid oxide steam electrolysis cell (oxide-ion conducting electrolyte, steam + H2 at the
+// cathode, pure O2 as the anode sweep at the anode pressure).
+//
+// voltage = E_rev + η_act,anode + η_act,cathode + η_ohm + η_conc, each part computed on its own:
+//   E_rev   Nernst for steam at the arithmetic mean of the inlet and outlet cathode compositions
+//           for the steam utilisation U (x_H2O,in given, rest H2), p_O2 = anode pressure;
+//           LHV thermoneutral voltage;
+//   η_act   Butler–Volmer (or Tafel) per electrode with an Arrhenius exchange current density;
+//   η_ohm   j·(ASR_electrolyte(T) + ASR_contact), ASR_electrolyte Arrhenius;
+//   η_conc  −(RT/2F)·ln(1 − j/j_lim), j_lim the steam diffusion limit through the cathode
+//           support at the outlet steam fraction x_H2O,in·(1 − U).
+// Faraday efficiency 1 − electronic leakage fraction. The feed steam follows the current at
+// fixed utilisation: consumed[H2O] = steam reacted, cathode_out[H2] = hydrogen produced,
+// cathode_out[H2O] = unreacted steam (feed = consumed + unreacted); the hydrogen fed with the
+// steam passes through and is not in the fluxes. Equations, defaults, sources:
+// docs/cells-water.md.
+#include <algorithm>
+#include <cmath>
+#include <fmt/format.h>
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "cells/technologies.hpp"
+#include "electrochem/conduction.hpp"
+#include "electrochem/kinetics.hpp"
+#include "thermo/check.hpp"
+#include "thermo/constants.hpp"
+#include "thermo/reaction.hpp"
+
+namespace ely {
+namespace {
+
+constexpr double kReferenceTemperature = 1073.15;  // K (800 °C), where j0, ASR and diffusivity are given
+
+const std::vector<ParameterInfo> kSolidOxideParameters = {
+    {"steam_inlet_fraction", "1", 0.9, 0.05, 1.0, "steam mole fraction of the cathode inlet, the rest hydrogen",
+     "typical value, from memory (about 10 % hydrogen keeps the nickel cathode reduced)"},
+    {"steam_utilisation", "1", 0.7, 0.05, 0.95, "steam utilisation U: steam reacted / steam fed",
+     "typical value, from memory"},
+    {"electrolyte_asr", "ohm m2", 1e-5, 0.0, 1e-2,
+     "ohmic area-specific resistance of the electrolyte (with interlayers) at 1073.15 K",
+     "8 mol% yttria-stabilised zirconia about 10 um thick: about 0.1 ohm cm2 at 800 C (typical value, from memory)"},
+    {"electrolyte_activation_energy", "J/mol", 80e3, 0.0, 300e3,
+     "activation energy of the electrolyte area-specific resistance",
+     "oxide-ion conduction in yttria-stabilised zirconia, about 80 kJ/mol (typical value, from memory)"},
+    {"contact_resistance", "ohm m2", 0.0, 0.0, 1e-3,
+     "temperature-independent contact area-specific resistance of interconnects and current collectors",
+     "none assumed"},
+    {"anode_exchange_current_density", "A/m2", 3e3, 1e-3, 1e6,
+     "oxygen electrode exchange current density at 1073.15 K, geometric area",
+     "typical value, from memory: perovskite oxygen electrodes, order 0.1-1 A/cm2 at 800 C"},
+    {"anode_activation_energy", "J/mol", 120e3, 0.0, 300e3,
+     "activation energy of the oxygen electrode exchange current density", "typical value, from memory"},
+    {"anode_transfer_coefficient_forward", "1", 0.5, 0.05, 4.0, "oxygen electrode transfer coefficient, oxidation",
+     "typical value, from memory"},
+    {"anode_transfer_coefficient_backward", "1", 0.5, 0.05, 4.0, "oxygen electrode transfer coefficient, reduction",
+     "typical value, from memory"},
+    {"cathode_exchange_current_density", "A/m2", 5e3, 1e-3, 1e6,
+     "fuel electrode exchange current density at 1073.15 K, geometric area",
+     "typical value, from memory: nickel-zirconia cermet, order 0.5-1 A/cm2 at 800 C"},
+    {"cathode_activation_energy", "J/mol", 100e3, 0.0, 300e3,
+     "activation energy of the fuel electrode exchange current density", "typical value, from memory"},
+    {"cathode_transfer_coefficient_forward", "1", 0.5, 0.05, 4.0, "fuel electrode transfer coefficient, reduction",
+     "typical value, from memory"},
+    {"cathode_transfer_coefficient_backward", "1", 0.5, 0.05, 4.0, "fuel electrode transfer coefficient, oxidation",
+     "typical value, from memory"},
+    {"kinetics_model", "1", 0.0, 0.0, 1.0, "electrode kinetics: 0 = Butler-Volmer, 1 = Tafel", "model choice"},
+    {"cathode_effective_diffusivity", "m2/s", 2e-5, 1e-8, 1e-2,
+     "effective steam diffusivity in the cathode support at 1073.15 K and 1 bar (scales as T^1.75/p)",
+     "typical value, from memory: binary H2-H2O diffusivity about 8e-4 m2/s at 800 C times porosity/tortuosity "
+     "about 0.03"},
+    {"cathode_support_thickness", "m", 400e-6, 1e-6, 5e-3, "diffusion length of the cathode (support) layer",
+     "typical value, from memory (cathode-supported cells)"},
+    {"electronic_leakage_fraction", "1", 0.0, 0.0, 0.5,
+     "fraction of the current carried by electrons through the electrolyte (produces no gas)",
+     "zero: dense zirconia electrolyte (typical assumption)"},
+};
+
+uint32_t read_switch(const ParameterValues& v, const char* key) {
+    const double x = v.get(key);
+    if (x != 0.0 && x != 1.0)
+        throw Error(ErrorKind::invalid_argument, fmt::format("{} is {:g}; it must be 0 or 1", key, x));
+    return static_cast<uint32_t>(x);
+}
+
+ElectrodeKinetics read_kinetics(const ParameterValues& v, const char* electrode) {
+    const std::string e(electrode);
+    return {v.get(e + "_exchange_current_density"), v.get(e + "_activation_energy"), kReferenceTemperature,
+            v.get(e + "_transfer_coefficient_forward"), v.get(e + "_transfer_coefficient_backward")};
+}
+
+double activation_overpotential(const ElectrodeKinetics& k, bool tafel, double j, double t) {
+    const double j0 = exchange_current_density(k, t);
+    return tafel ? tafel_overpotential(j, j0, k.alpha_forward, t)
+                 : butler_volmer_overpotential(j, j0, k.alpha_forward, k.alpha_backward, t);
+}
+
+class SolidOxideCell final : public Cell {
+public:
+    explicit SolidOxideCell(const ParameterValues& v)
+        : x_steam_in_(v.get("steam_inlet_fraction")),
+          utilisation_(v.get("steam_utilisation")),
+          electrolyte_asr_(v.get("electrolyte_asr")),
+          electrolyte_activation_energy_(v.get("electrolyte_activation_energy")),
+          contact_resistance_(v.get("contact_resistance")),
+          anode_(read_kinetics(v, "anode")),
+          cathode_(read_kinetics(v, "cathode")),
+          tafel_(read_switch(v, "kinetics_model") == 1),
+          diffusivity_(v.get("cathode_effective_diffusivity")),
+          support_thickness_(v.get("cathode_support_thickness")),
+          leakage_(v.get("electronic_leakage_fraction")) {
+        // Arithmetic mean of inlet and outlet: each mol of steam reacted gives one mol of H2.
+        x_steam_mean_ = x_steam_in_ * (1.0 - 0.5 * utilisation_);
+        x_h2_mean_ = 1.0 - x_steam_mean_;
+        x_steam_out_ = x_steam_in_ * (1.0 - utilisation_);
+    }
+
+    Technology technology() const override { return Technology::solid_oxide; }
+    const Envelope& envelope() const override { return envelope_; }
+    std::unique_ptr<Cell> clone() const override { return std::make_unique<SolidOxideCell>(*this); }
+
+    double current_density_limit(const OperatingPoint& p) const override {
+        require_positive(p.temperature, "solid_oxide cell: temperature");
+        return std::min(envelope_.current_density_max,
+                        limiting_current_density(p.temperature) * (1.0 - 1e-9) / (1.0 - leakage_));
+    }
+
+    /// Steam diffusion limit through the cathode support at the outlet composition:
+    /// j_lim = 2F·D_eff(T, p)·c_H2O/δ with c_H2O = x_out·p/(RT) and D_eff ∝ T^1.75/p, so that
+    /// j_lim = 2F·D_ref·(T/T_ref)^1.75·p°·x_out/(R·T·δ), independent of the pressure.
+    double limiting_current_density(double t) const {
+        const double d = diffusivity_ * std::pow(t / kReferenceTemperature, 1.75);
+        return 2.0 * kFaraday * d * kStandardPressure * x_steam_out_ / (kGasConstant * t * support_thickness_);
+    }
+
+    CellResult evaluate(const OperatingPoint& p) const override {
+        CellResult r;
+        r.warnings = check_envelope(envelope_, p, "solid_oxide");
+        const double t = p.temperature, j = p.current_density;
+        r.current_density = j;
+        r.gases_saturated = false;
+        r.reversible_voltage = reversible_voltage_steam(t, p.pressure_cathode * x_h2_mean_,
+                                                        p.pressure_cathode * x_steam_mean_, p.pressure_anode);
+        r.thermoneutral_voltage = thermoneutral_voltage_lhv(t);
+        r.faraday_efficiency = 1.0 - leakage_;
+
+        const double j_ion = j * (1.0 - leakage_);
+        const double j_lim = limiting_current_density(t);
+        r.concentration = concentration_overpotential(j_ion, j_lim, t, 2);
+        if (j_ion > 0.95 * j_lim) r.warnings |= kWarnNearLimitingCurrent;
+        r.activation_anode = activation_overpotential(anode_, tafel_, j_ion, t);
+        r.activation_cathode = activation_overpotential(cathode_, tafel_, j_ion, t);
+        const double asr = arrhenius_area_specific_resistance(electrolyte_asr_, electrolyte_activation_energy_,
+                                                              kReferenceTemperature, t);
+        r.ohmic = j_ion * (asr + contact_resistance_);
+        r.voltage = r.reversible_voltage + r.activation_anode + r.activation_cathode + r.ohmic + r.concentration;
+
+        const double reacted = j_ion / (2.0 * kFaraday);
+        r.consumed[kH2O] = reacted;
+        r.cathode_out[kH2] = reacted;
+        r.anode_out[kO2] = j_ion / (4.0 * kFaraday);
+        r.cathode_out[kH2O] = reacted * (1.0 / utilisation_ - 1.0);  // unreacted steam
+        return r;
+    }
+
+private:
+    Envelope envelope_{873.15, 1173.15, 5e4, 2.5e6, 2e4, 973.15, 1123.15};
+    double x_steam_in_, utilisation_;
+    double electrolyte_asr_, electrolyte_activation_energy_, contact_resistance_;
+    ElectrodeKinetics anode_, cathode_;
+    bool tafel_;
+    double diffusivity_, support_thickness_, leakage_;
+    double x_steam_mean_ = 0, x_h2_mean_ = 0, x_steam_out_ = 0;
+};
+
+}  // namespace
+
+const std::vector<ParameterInfo>& solid_oxide_parameters() { return kSolidOxideParameters; }
+
+std::unique_ptr<Cell> make_solid_oxide_cell(const ParameterValues& values) {
+    return std::make_unique<SolidOxideCell>(values);
+}
+
+}  // namespace ely

@@ -1,0 +1,57 @@
+#pragma once
+// Quantities with units in the config: "80 degC", "30 bar", "2 A/cm2", "0.15 ohm cm2".
+// A unit expression is parsed into a rational factor times a power of ten, an offset
+// (degC only) and a dimension over the SI base units m, kg, s, A, K, mol; the value is then
+// expressed in the unit the caller expects (an SI unit string such as ParameterInfo::unit).
+//
+// Grammar (SI Brochure, 9th ed. 2019, section 5.4, with the usual engineering liberties):
+//   expression := product ('/' product)*        a/b c = a/(b c); a/b/c = a/(b c)
+//   product    := power (('*' | '.' | '·' | space) power)*
+//   power      := atom exponent?                exponent: [^][-+]digits, or ² ³ ⁻¹ …
+//   atom       := '(' expression ')' | symbol | '1'
+// Symbols: m g s A K mol Pa bar W V J ohm Ω S C L l Wh Ah with the prefixes n u µ m c k M G;
+// without prefixes: atm h min d t degC (°C), and the dimensionless 1 % ppm wt% mol% vol%.
+// degC stands only on its own (a temperature, not a difference: use K in compounds).
+#include <array>
+#include <cstdint>
+#include <string>
+#include <string_view>
+
+namespace ely {
+
+/// Exponents of the SI base units m, kg, s, A, K, mol.
+using Dimension = std::array<int, 6>;
+
+/// A parsed unit: value_SI = value · (numerator / denominator) · 10^exponent10 + offset.
+struct Unit {
+    double numerator = 1;    // integers, exact in a double
+    double denominator = 1;
+    int exponent10 = 0;
+    double offset = 0;       // K, degC only
+    Dimension dimension{};
+
+    double factor() const;   // numerator / denominator · 10^exponent10
+};
+
+/// Parses a unit expression. Throws ely::Error (ErrorKind::config) naming the unit text:
+/// "unit 'degF' is not known", "unit 'm^' has no exponent after '^'".
+Unit parse_unit(std::string_view text);
+
+/// The SI base units of a dimension in the order of Dimension, e.g. "kg m-1 s-2"; "1" if none.
+std::string dimension_text(const Dimension& dimension);
+
+/// Converts `value` given in unit `from` into unit `to` (both unit expressions); the
+/// dimensions must agree ("expected a quantity in K, got 'bar'"). `to` has no offset.
+double convert_unit(double value, std::string_view from, std::string_view to);
+
+/// Parses "number unit" ("1.5 MW", "25 %", "80degC", or a bare "42" taken as already in
+/// `expected_unit`) and returns the value in `expected_unit`. An expected unit outside the
+/// grammar (an empirical "(A/m2)^-n") accepts bare numbers only. Throws ErrorKind::config with
+/// a message without a JSON path; the config layer puts the path in front. A non-finite
+/// number or result is an error.
+double parse_quantity(std::string_view text, std::string_view expected_unit);
+
+/// Markdown list of the accepted unit symbols and prefixes, generated from the parser's tables.
+std::string units_markdown();
+
+}  // namespace ely

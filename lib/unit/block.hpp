@@ -1,0 +1,69 @@
+#pragma once
+// The electrolyzer block: inputs, steady-state solve, outputs. Life cycle:
+//   Block(design) → set inputs → solve() → get outputs → set … → solve() …
+// Outputs can be read only while they belong to the current inputs (after a successful
+// solve and before the next set). A failed solve rolls the inputs back to those of the last
+// successful solve, so the block always holds a consistent solved state (or none yet).
+#include <array>
+#include <cstdint>
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include "unit/plant.hpp"
+#include "unit/variables.hpp"
+
+namespace ely {
+
+struct SolveOutcome {
+    bool warning = false;     // an alarm or extrapolation flag is raised
+    std::string message;      // what was raised, for the host
+};
+
+class Block {
+public:
+    explicit Block(PlantDesign design);
+
+    const PlantDesign& design() const { return design_; }
+
+    // Variables are addressed by a dense index 0..count-1 over the variables of this
+    // block's technology, in table order.
+    int32_t variable_count() const { return static_cast<int32_t>(index_to_var_.size()); }
+    const VariableInfo& variable(int32_t index) const;
+    int32_t find(std::string_view name) const;  // throws unknown_name
+    Var var_of(int32_t index) const;
+
+    void set(int32_t index, double value);  // inputs only; validated; throws, changing nothing
+    double get(int32_t index) const;        // outputs need a current solution
+    void set_spec(Spec spec);
+    Spec spec() const { return spec_; }
+
+    SolveOutcome solve();  // throws on failure after rolling back
+    bool solved() const { return outputs_current_; }
+
+    /// The solved state as a JSON object (inputs, outputs, alarms).
+    std::string report_json() const;
+
+    double value(Var v) const { return v_[v]; }  // raw access for the C layer's batch path
+
+private:
+    struct PointResult;
+    void evaluate_at(double current_density, PointResult& out) const;
+    double max_current_density(double temperature, double p_anode, double p_cathode) const;
+    double solve_current_density(double j_max);
+    void fill_outputs(const PointResult& r);
+
+    PlantDesign design_;
+    std::vector<Var> index_to_var_;
+    std::array<int32_t, kVarCount> var_to_index_{};
+    Spec spec_;
+    std::array<double, kVarCount> v_{};
+    std::array<double, kVarCount> last_good_{};
+    bool has_solution_ = false;
+    bool outputs_current_ = false;
+    double rectifier_rated_power_ = 0;
+    double last_current_density_ = -1;  // warm start of the spec solves
+    std::string last_warning_;
+};
+
+}  // namespace ely

@@ -1,0 +1,320 @@
+// Chlor-alkali membrane cell. Every reference value names its source beside it.
+#include <gmock/gmock.h>
+#include <gtest/gtest.h>
+
+#include <algorithm>
+#include <atomic>
+#include <cmath>
+#include <cstdlib>
+#include <initializer_list>
+#include <limits>
+#include <memory>
+#include <new>
+#include <string>
+#include <utility>
+
+#include "cells/brine/brine.hpp"
+#include "cells/technologies.hpp"
+#include "electrochem/electrolyte.hpp"
+#include "thermo/constants.hpp"
+#include "thermo/error.hpp"
+#include "thermo/reaction.hpp"
+#include "thermo/water.hpp"
+
+// Allocation counter for the "evaluate() does not allocate" checks. The replacement operator
+// new is weak and its counters are inline variables, so several test files may carry the same
+// definitions; when another strong replacement wins, the check notices and skips.
+namespace ely_test_alloc {
+inline std::atomic<long> count{0};
+inline std::atomic<bool> counting{false};
+}  // namespace ely_test_alloc
+__attribute__((weak)) void* operator new(std::size_t n) {
+    if (ely_test_alloc::counting.load(std::memory_order_relaxed)) ely_test_alloc::count.fetch_add(1);
+    if (void* p = std::malloc(n == 0 ? 1 : n)) return p;
+    throw std::bad_alloc();
+}
+__attribute__((weak)) void operator delete(void* p) noexcept { std::free(p); }
+__attribute__((weak)) void operator delete(void* p, std::size_t) noexcept { std::free(p); }
+
+using namespace ely;
+using ::testing::HasSubstr;
+
+namespace {
+template <class F>
+void expect_error(F&& f, ErrorKind kind, const char* fragment) {
+    try {
+        f();
+        ADD_FAILURE() << "no ely::Error thrown; expected one containing '" << fragment << "'";
+    } catch (const Error& e) {
+        EXPECT_EQ(e.kind(), kind) << e.what();
+        EXPECT_THAT(e.what(), HasSubstr(fragment));
+    }
+}
+
+std::unique_ptr<Cell> brine_cell(std::initializer_list<std::pair<const char*, double>> settings = {}) {
+    ParameterValues v(brine_parameters());
+    for (const auto& [key, value] : settings) v.set(key, value);
+    return make_brine_cell(v);
+}
+
+OperatingPoint point(double j, double t = 363.15, double p = 1.2e5) { return {j, t, p, p}; }
+
+struct Elements {
+    double h, o, na, cl;
+};
+Elements elements(const Fluxes& f) {
+    return {2 * f[kH2] + 2 * f[kH2O] + f[kNaOH], 2 * f[kO2] + f[kH2O] + f[kNaOH], f[kNaOH] + f[kNaCl],
+            2 * f[kCl2] + f[kNaCl]};
+}
+Fluxes sum(const Fluxes& a, const Fluxes& b) {
+    Fluxes s{};
+    for (int i = 0; i < kComponentCount; ++i) s[i] = a[i] + b[i];
+    return s;
+}
+double rel(double a, double b) { return a == b ? 0.0 : std::fabs(a - b) / std::max(std::fabs(a), std::fabs(b)); }
+}  // namespace
+
+TEST(Brine, ParametersCarrySourcesAndValidDefaults) {
+    for (const auto& p : brine_parameters()) {
+        EXPECT_GE(p.default_value, p.min) << p.key;
+        EXPECT_LE(p.default_value, p.max) << p.key;
+        EXPECT_GT(std::string(p.source).size(), 0u) << p.key;
+        EXPECT_GT(std::string(p.unit).size(), 0u) << p.key;
+    }
+    auto cell = brine_cell();
+    EXPECT_EQ(cell->technology(), Technology::brine);
+    EXPECT_EQ(cell->current_density_limit(point(0.0)), 7000.0);
+}
+
+TEST(Brine, StandardDecompositionVoltage) {
+    // CRC electrochemical series (Vanýsek): E°(Cl2/Cl⁻) − E°(H2O/H2,OH⁻) = 1.35827 + 0.8277 = 2.186 V
+    EXPECT_NEAR(reversible_voltage_standard(brine_electrolysis(298.15)), 2.186, 3e-3);
+}
+
+TEST(Brine, ReversibleVoltageAtPlantConditions) {
+    // Common practice: the decomposition voltage of a membrane cell at about 90 °C, 32 wt %
+    // caustic and depleted brine lies in 2.2–2.35 V.
+    auto cell = brine_cell();
+    for (double t : {353.15, 363.15})
+        for (double p : {1.0e5, 1.2e5, 1.5e5}) {
+            const auto r = cell->evaluate(point(4000.0, t, p));
+            EXPECT_GT(r.reversible_voltage, 2.20) << t << " K " << p << " Pa";
+            EXPECT_LT(r.reversible_voltage, 2.35) << t << " K " << p << " Pa";
+        }
+}
+
+TEST(Brine, ReversibleVoltageIsNernstWithPitzerActivities) {
+    // Rebuilt from its parts: wet-gas partial pressures over each side's water activity, the
+    // anode gas diluted by the O2 of the side reaction, Pitzer activities of NaCl and NaOH.
+    auto cell = brine_cell();
+    const double t = 358.15, pa = 1.3e5, pc = 1.4e5;
+    const auto r = cell->evaluate({5000.0, t, pa, pc});
+    const auto nacl = aqueous_salt_activity(AqueousSalt::sodium_chloride, 3.8, t);
+    const auto naoh =
+        aqueous_salt_activity(AqueousSalt::sodium_hydroxide, molality_from_mass_fraction(0.32, molar_mass::NaOH), t);
+    const double ce = r.caustic_efficiency;
+    const double p_sat = water_saturation_pressure(t);
+    const double p_cl2 = 2 * ce / (1 + ce) * (pa - nacl.water_activity * p_sat);
+    const double p_h2 = pc - naoh.water_activity * p_sat;
+    const double e = reversible_voltage_brine(t, p_cl2, p_h2, naoh.electrolyte_activity, nacl.electrolyte_activity,
+                                              naoh.water_activity);
+    EXPECT_NEAR(r.reversible_voltage, e, 1e-13);
+    EXPECT_DOUBLE_EQ(r.water_activity_anode, nacl.water_activity);
+    EXPECT_DOUBLE_EQ(r.water_activity_cathode, naoh.water_activity);
+}
+
+TEST(Brine, ReversibleVoltageFollowsNernstWithConcentrations) {
+    // Nernst: E rises with the caustic activity (product side) and falls with the brine
+    // activity (reactant side).
+    const auto at = [](double w, double m) {
+        return brine_cell({{"catholyte_naoh_mass_fraction", w}, {"anolyte_nacl_molality", m}})
+            ->evaluate(point(4000.0))
+            .reversible_voltage;
+    };
+    EXPECT_LT(at(0.28, 3.8), at(0.32, 3.8));
+    EXPECT_LT(at(0.32, 3.8), at(0.35, 3.8));
+    EXPECT_GT(at(0.32, 3.0), at(0.32, 3.8));
+    EXPECT_GT(at(0.32, 3.8), at(0.32, 5.0));
+    // Higher pressure on either side: higher E (gas products).
+    auto cell = brine_cell();
+    EXPECT_LT(cell->evaluate(point(4000.0, 363.15, 1.1e5)).reversible_voltage,
+              cell->evaluate(point(4000.0, 363.15, 1.8e5)).reversible_voltage);
+}
+
+TEST(Brine, CellVoltageAndEfficiencyAtPlantConditions) {
+    // O'Brien, Bommaraju & Hine, Handbook of Chlor-Alkali Technology (2005), from memory / common
+    // practice: membrane cells run at about 2.9–3.2 V at 4–6 kA/m², 90 °C, 32 wt % NaOH, with a
+    // caustic current efficiency of 95–97 %.
+    auto cell = brine_cell();
+    for (double j : {4000.0, 5000.0, 6000.0})
+        for (double p : {1.0e5, 1.2e5, 1.5e5}) {
+            const auto r = cell->evaluate(point(j, 363.15, p));
+            EXPECT_GT(r.voltage, 2.9) << j << " A/m2, " << p << " Pa";
+            EXPECT_LT(r.voltage, 3.2) << j << " A/m2, " << p << " Pa";
+            EXPECT_GE(r.caustic_efficiency, 0.95);
+            EXPECT_LE(r.caustic_efficiency, 0.97);
+            EXPECT_EQ(r.chlorine_efficiency, r.caustic_efficiency);
+            EXPECT_EQ(r.caustic_mass_fraction, 0.32);
+            EXPECT_EQ(r.faraday_efficiency, 1.0);
+            EXPECT_EQ(r.h2_in_o2, 0.0);
+            EXPECT_TRUE(r.gases_saturated);
+        }
+}
+
+TEST(Brine, ThermoneutralVoltageFromReactionEnthalpy) {
+    auto cell = brine_cell();
+    for (double t : {333.15, 353.15, 368.15})
+        EXPECT_EQ(cell->evaluate(point(3000.0, t)).thermoneutral_voltage, thermoneutral_voltage(brine_electrolysis(t)));
+}
+
+TEST(Brine, CausticEfficiencyFallsWithCausticStrength) {
+    // Hydroxide back-migration grows with catholyte strength (typical relation, see docs).
+    double last = 2.0;
+    for (double w : {0.20, 0.26, 0.30, 0.32, 0.34, 0.38}) {
+        const double ce = brine_cell({{"catholyte_naoh_mass_fraction", w}})->evaluate(point(4000.0)).caustic_efficiency;
+        EXPECT_LE(ce, last);
+        EXPECT_LE(ce, 1.0);
+        last = ce;
+    }
+    EXPECT_DOUBLE_EQ(brine_caustic_current_efficiency(0.32, 0.96, 0.25), 0.96);
+    EXPECT_DOUBLE_EQ(brine_caustic_current_efficiency(0.36, 0.96, 0.25), 0.95);
+    EXPECT_EQ(brine_caustic_current_efficiency(0.0, 0.99, 1.0), 1.0);  // clipped
+}
+
+TEST(Brine, OxygenInChlorine) {
+    // 4 OH⁻ → O2 + 2 H2O + 4 e⁻ on the back-migrated share: O2/(Cl2 + O2) = (1 − CE)/(1 + CE)
+    const auto r = brine_cell()->evaluate(point(4000.0));
+    const double ce = r.caustic_efficiency;
+    EXPECT_NEAR(brine_o2_in_cl2(r), (1 - ce) / (1 + ce), 1e-15);
+    EXPECT_EQ(brine_o2_in_cl2(brine_cell()->evaluate(point(0.0))), 0.0);
+}
+
+TEST(Brine, ProductFluxesAndFaradayLaw) {
+    // Faraday's law: per m², H2 = j/(2F), NaOH = CE·j/F, Cl2 = CE·j/(2F), O2 = (1 − CE)·j/(4F).
+    const double j = 5000.0;
+    const auto r = brine_cell()->evaluate(point(j));
+    const double ce = r.caustic_efficiency, n = j / kFaraday;
+    EXPECT_NEAR(r.cathode_out[kH2], n / 2, 1e-15 * n);
+    EXPECT_NEAR(r.cathode_out[kNaOH], ce * n, 1e-15 * n);
+    EXPECT_NEAR(r.anode_out[kCl2], ce * n / 2, 1e-15 * n);
+    EXPECT_NEAR(r.anode_out[kO2], (1 - ce) * n / 4, 1e-15 * n);
+    EXPECT_NEAR(r.consumed[kNaCl], ce * n, 1e-15 * n);
+    EXPECT_NEAR(r.water_drag, 4.0 * ce * n, 1e-15 * n);
+    EXPECT_EQ(r.anode_out[kH2], 0.0);
+    EXPECT_EQ(r.cathode_out[kO2], 0.0);
+    // Trade figures (REFERENCES.md, derived): 1.3227 g Cl2 and 1.4923 g NaOH per A·h at 100 %
+    const double ah = 3600.0 / j;  // seconds per A·h on 1 m² at j
+    EXPECT_NEAR(r.anode_out[kCl2] / ce * ah * molar_mass::Cl2 * 1e3, 1.3227, 1e-4);
+    EXPECT_NEAR(r.cathode_out[kNaOH] / ce * ah * molar_mass::NaOH * 1e3, 1.4923, 1e-4);
+}
+
+TEST(Brine, ElementBalancesCloseOverAGrid) {
+    // H, O, Na, Cl: consumed feed = products of both sides, to rounding.
+    for (double w : {0.20, 0.32, 0.38})
+        for (double m : {2.0, 3.8, 5.5}) {
+            auto cell = brine_cell({{"catholyte_naoh_mass_fraction", w}, {"anolyte_nacl_molality", m}});
+            for (double t : {333.15, 350.0, 368.15})
+                for (double p : {1.0e5, 2.0e5})
+                    for (double j : {1.0, 350.0, 4000.0, 7000.0}) {
+                        const auto r = cell->evaluate(point(j, t, p));
+                        const auto in = elements(r.consumed);
+                        const auto out = elements(sum(r.cathode_out, r.anode_out));
+                        EXPECT_LE(rel(in.h, out.h), 1e-14);
+                        EXPECT_LE(rel(in.o, out.o), 1e-14);
+                        EXPECT_LE(rel(in.na, out.na), 1e-14);
+                        EXPECT_LE(rel(in.cl, out.cl), 1e-14);
+                        // Charge: electrons to H2 at the cathode = electrons from Cl2 and O2 at the anode.
+                        EXPECT_LE(rel(2 * r.cathode_out[kH2], 2 * r.anode_out[kCl2] + 4 * r.anode_out[kO2]), 1e-14);
+                    }
+        }
+}
+
+TEST(Brine, VoltagePartsSumExactlyAndVoltageRisesWithCurrent) {
+    for (double model : {0.0, 1.0}) {
+        auto cell = brine_cell({{"voltage_model", model}});
+        for (double t : {333.15, 363.15}) {
+            double last = 0.0;
+            for (double j = 0.0; j <= 7000.0; j += 250.0) {
+                const auto r = cell->evaluate(point(j, t));
+                EXPECT_EQ(r.voltage,
+                          r.reversible_voltage + r.activation_anode + r.activation_cathode + r.ohmic + r.concentration);
+                EXPECT_GE(r.activation_anode, 0.0);
+                EXPECT_GE(r.activation_cathode, 0.0);
+                EXPECT_GE(r.ohmic, 0.0);
+                EXPECT_EQ(r.current_density, j);
+                if (j > 0.0) {
+                    EXPECT_GT(r.voltage, last) << j;
+                }
+                last = r.voltage;
+            }
+        }
+    }
+}
+
+TEST(Brine, LinearFitReproducesItsLine) {
+    // voltage_model 1: U = U0 + k·j exactly; U0 − E_rev reported as anode activation, k·j as ohmic.
+    for (double u0 : {2.35, 2.5, 2.8})
+        for (double k : {0.0, 0.8e-4, 1.2e-4}) {
+            auto cell = brine_cell({{"voltage_model", 1}, {"linear_voltage_intercept", u0}, {"linear_voltage_slope", k}});
+            for (double j : {0.0, 1000.0, 4000.0, 6500.0}) {
+                const auto r = cell->evaluate(point(j));
+                EXPECT_EQ(r.voltage, u0 + k * j);
+                EXPECT_EQ(r.ohmic, k * j);
+                EXPECT_EQ(r.activation_anode, u0 - r.reversible_voltage);
+                EXPECT_EQ(r.activation_cathode, 0.0);
+            }
+        }
+    // An intercept below E_rev: no activation, the line's excess over E_rev is ohmic; below E_rev
+    // altogether, an error naming both voltages.
+    auto low = brine_cell({{"voltage_model", 1}, {"linear_voltage_intercept", 2.0}, {"linear_voltage_slope", 1e-4}});
+    const auto r = low->evaluate(point(6000.0));
+    EXPECT_EQ(r.activation_anode, 0.0);
+    EXPECT_NEAR(r.voltage, 2.6, 1e-12);
+    expect_error([&] { low->evaluate(point(1000.0)); }, ErrorKind::out_of_range, "below the reversible voltage");
+}
+
+TEST(Brine, CloneAndWarnings) {
+    auto cell = brine_cell();
+    auto copy = cell->clone();
+    EXPECT_EQ(copy->evaluate(point(4500.0)).voltage, cell->evaluate(point(4500.0)).voltage);
+    EXPECT_EQ(cell->evaluate(point(4000.0, 353.15)).warnings, 0u);
+    EXPECT_NE(cell->evaluate(point(4000.0, 335.0)).warnings & kWarnTemperatureExtrapolated, 0u);
+    EXPECT_NE(cell->evaluate(point(4000.0, 366.0)).warnings & kWarnTemperatureExtrapolated, 0u);
+}
+
+TEST(Brine, ErrorsNameTheLimit) {
+    auto cell = brine_cell();
+    const double nan = std::numeric_limits<double>::quiet_NaN();
+    expect_error([&] { cell->evaluate(point(4000.0, 330.0)); }, ErrorKind::out_of_range, "333.15");
+    expect_error([&] { cell->evaluate(point(4000.0, 370.0)); }, ErrorKind::out_of_range, "368.15");
+    expect_error([&] { cell->evaluate(point(4000.0, 363.15, 0.9e5)); }, ErrorKind::out_of_range, "100000");
+    expect_error([&] { cell->evaluate(point(4000.0, 363.15, 2.5e5)); }, ErrorKind::out_of_range, "200000");
+    expect_error([&] { cell->evaluate(point(7500.0)); }, ErrorKind::out_of_range, "7000");
+    expect_error([&] { cell->evaluate(point(-1.0)); }, ErrorKind::out_of_range, "current density");
+    expect_error([&] { cell->evaluate(point(nan)); }, ErrorKind::invalid_argument, "current density");
+    expect_error([&] { cell->evaluate(point(4000.0, nan)); }, ErrorKind::invalid_argument, "temperature");
+    expect_error([&] { cell->evaluate({4000.0, 363.15, nan, 1.2e5}); }, ErrorKind::invalid_argument, "anode pressure");
+    expect_error([] { brine_cell({{"voltage_model", 0.5}}); }, ErrorKind::invalid_argument, "voltage_model");
+    expect_error([] { brine_cell({{"catholyte_naoh_mass_fraction", 0.5}}); }, ErrorKind::out_of_range,
+                 "catholyte_naoh_mass_fraction");
+    expect_error([] { brine_cell({{"no_such_key", 1.0}}); }, ErrorKind::unknown_name, "no_such_key");
+    expect_error([] { brine_caustic_current_efficiency(0.32, 0.0, 0.0); }, ErrorKind::out_of_range, "not positive");
+}
+
+TEST(Brine, EvaluateDoesNotAllocate) {
+    auto cell = brine_cell();
+    auto linear = brine_cell({{"voltage_model", 1}});
+    const OperatingPoint p = point(4500.0);
+    CellResult r = cell->evaluate(p);  // warm-up outside the counted region
+    ely_test_alloc::count = 0;
+    ely_test_alloc::counting = true;
+    void* probe = ::operator new(32);
+    ::operator delete(probe);
+    const long probe_count = ely_test_alloc::count.load();
+    r = cell->evaluate(p);
+    r = linear->evaluate(p);
+    ely_test_alloc::counting = false;
+    if (probe_count != 1) GTEST_SKIP() << "operator new is replaced elsewhere in this test program; cannot count";
+    EXPECT_EQ(ely_test_alloc::count.load(), 1) << "evaluate() allocated";
+    EXPECT_GT(r.voltage, 0.0);
+}

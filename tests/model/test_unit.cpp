@@ -1,0 +1,265 @@
+// The block (lib/unit): balances over random operating points for every technology, spec
+// solves, alarms, rollback. Balances are identities: they must close to round-off.
+#include <gmock/gmock.h>
+#include <gtest/gtest.h>
+
+#include <cmath>
+#include <random>
+#include <string>
+
+#include "config/config.hpp"
+#include "thermo/constants.hpp"
+#include "thermo/error.hpp"
+#include "thermo/species.hpp"
+#include "thermo/water.hpp"
+#include "unit/block.hpp"
+
+using namespace ely;
+using ::testing::HasSubstr;
+
+namespace {
+
+std::string minimal(const char* technology, const std::string& extra = "") {
+    return std::string(R"({"technology":")") + technology +
+           R"(","stack":{"cells":20,"active_area":0.05,"stacks":3},"operating":{"spec":"current_density"})" + extra + "}";
+}
+
+struct Probe {
+    Block block;
+    explicit Probe(const std::string& json) : block(parse_config(json)) {}
+    int32_t idx(const char* name) const { return block.find(name); }
+    double get(const char* name) const { return block.get(block.find(name)); }
+    void set(const char* name, double v) { block.set(block.find(name), v); }
+};
+
+// Molar flows of one stream from its outputs (mass flow and mole fractions).
+struct StreamMoles {
+    double total, h2, o2, cl2, h2o;
+};
+StreamMoles stream(const Probe& p, const std::string& side) {
+    const auto g = [&](const std::string& q) {
+        const std::string name = "stream." + side + "." + q;
+        try { return p.get(name.c_str()); } catch (const Error&) { return 0.0; }  // x_cl2 exists for brine only
+    };
+    StreamMoles s{};
+    s.h2 = g("x_h2");
+    s.o2 = g("x_o2");
+    s.cl2 = side == "anode" ? g("x_cl2") : 0.0;
+    s.h2o = g("x_h2o");
+    const double molar_mass_mean =
+        s.h2 * molar_mass::H2 + s.o2 * molar_mass::O2 + s.cl2 * molar_mass::Cl2 + s.h2o * molar_mass::H2O;
+    s.total = molar_mass_mean > 0 ? g("mass_flow") / molar_mass_mean : 0.0;
+    s.h2 *= s.total; s.o2 *= s.total; s.cl2 *= s.total; s.h2o *= s.total;
+    return s;
+}
+
+double rel_err(double a, double b, double scale) { return std::fabs(a - b) / scale; }
+
+}  // namespace
+
+class UnitBalances : public ::testing::TestWithParam<const char*> {};
+
+TEST_P(UnitBalances, ElementAndEnergyBalancesCloseOverRandomPoints) {
+    const std::string tech = GetParam();
+    Probe p(minimal(tech.c_str(), R"(,"plant":{"thermal":{"heat_loss_coefficient":5}})"));
+    const auto& env = p.block.design().cell->envelope();
+    std::mt19937_64 rng(20261201);
+    std::uniform_real_distribution<double> u(0.0, 1.0);
+    const double p_lo = std::max(env.pressure_min, 1.1e5), p_hi = std::min(env.pressure_max, 30e5);
+    int solved = 0;
+    for (int k = 0; k < 1000; ++k) {
+        const double t = env.temperature_fit_min + u(rng) * (env.temperature_fit_max - env.temperature_fit_min);
+        const double pc = p_lo + u(rng) * (p_hi - p_lo);
+        const double pa = p_lo + u(rng) * (std::min(p_hi, pc) - p_lo);
+        const double t_feed = 288.15 + u(rng) * (t - 288.15);
+        p.set("in.temperature", t);
+        p.set("in.pressure_cathode", pc);
+        p.set("in.pressure_anode", pa);
+        p.set("in.feed_temperature", t_feed);
+        p.set("in.hours_operated", u(rng) * 20000);
+        const double j_max = p.block.design().cell->current_density_limit({env.current_density_max, t, pa, pc});
+        p.set("in.current_density", (0.05 + 0.9 * u(rng)) * std::min(j_max, p.get("param.current_density_max")));
+        p.block.solve();
+        ++solved;
+
+        // Voltage breakdown sums exactly.
+        const double parts = p.get("cell.reversible_voltage") + p.get("cell.activation_anode") +
+                             p.get("cell.activation_cathode") + p.get("cell.ohmic") + p.get("cell.concentration");
+        ASSERT_NEAR(parts, p.get("cell.voltage"), 1e-14 * p.get("cell.voltage"));
+
+        // Element balances: feed (water, salt) = cathode stream + anode stream + liquids out.
+        const auto c = stream(p, "cathode"), a = stream(p, "anode");
+        const double water_in = p.get("feed.water") / molar_mass::H2O;
+        const double salt_in = tech == "brine" ? p.get("feed.salt") / molar_mass::NaCl : 0.0;
+        const double naoh = tech == "brine" ? p.get("product.caustic") / molar_mass::NaOH : 0.0;
+        const double caustic_water =
+            tech == "brine" ? (p.get("product.caustic_solution") - p.get("product.caustic")) / molar_mass::H2O : 0.0;
+        const double h_in = 2 * water_in, o_in = water_in;
+        const double h_out = 2 * (c.h2 + a.h2 + c.h2o + a.h2o + caustic_water) + naoh;
+        const double o_out = 2 * (c.o2 + a.o2) + c.h2o + a.h2o + caustic_water + naoh;
+        const double scale = h_in;
+        ASSERT_LT(rel_err(h_in, h_out, scale), 1e-12) << tech << " H, point " << k;
+        ASSERT_LT(rel_err(o_in, o_out, scale), 1e-12) << tech << " O, point " << k;
+        if (tech == "brine") {
+            ASSERT_LT(rel_err(salt_in, naoh, salt_in), 1e-12) << "Na";
+            ASSERT_LT(rel_err(salt_in, 2 * a.cl2, salt_in), 1e-12) << "Cl";
+        }
+
+        // Energy: P_DC + H_feed = H_products + Q_duty + Q_loss, recomputed from the outputs
+        // with the thermodynamic functions directly.
+        double feed_h;
+        if (tech == "solid_oxide") feed_h = water_in * ideal_gas(Species::water_vapour, t).enthalpy;
+        else feed_h = water_in * liquid_water(t_feed, std::max(pa, pc)).enthalpy;
+        if (tech == "brine") feed_h += salt_in * aqueous_solute(Solute::sodium_chloride, t_feed).enthalpy;
+        double prod_h = (c.h2 + a.h2) * ideal_gas(Species::hydrogen, t).enthalpy +
+                        (c.h2o + a.h2o) * ideal_gas(Species::water_vapour, t).enthalpy;
+        if (c.o2 + a.o2 > 0) prod_h += (c.o2 + a.o2) * ideal_gas(Species::oxygen, t).enthalpy;
+        if (a.cl2 > 0) prod_h += a.cl2 * ideal_gas(Species::chlorine, t).enthalpy;
+        if (tech == "brine")
+            prod_h += caustic_water * liquid_water(t, std::max(pc, water_saturation_pressure(t))).enthalpy +
+                      naoh * aqueous_solute(Solute::sodium_hydroxide, t).enthalpy;
+        const double power = p.get("stack.power");
+        const double lhs = power + feed_h, rhs = prod_h + p.get("heat.duty") + p.get("heat.loss");
+        ASSERT_LT(std::fabs(lhs - rhs), 1e-9 * power) << tech << " energy, point " << k;
+
+        // Faraday's law: product hydrogen = j·A_total/(2F)·η_F·M_H2.
+        const double area_total = 20 * 3 * 0.05;
+        const double faraday = p.get("cell.current_density") * area_total / (2 * kFaraday) *
+                               p.get("cell.faraday_efficiency") * molar_mass::H2;
+        ASSERT_LT(rel_err(p.get("product.hydrogen"), faraday, faraday), 1e-9) << tech;
+        ASSERT_LT(rel_err(p.get("perf.specific_energy"), power / p.get("product.hydrogen"), p.get("perf.specific_energy")),
+                  1e-14);
+        ASSERT_GT(p.get("cell.faraday_efficiency"), 0.0);
+        ASSERT_LE(p.get("cell.faraday_efficiency"), 1.0);
+        ASSERT_GE(p.get("gas.h2_in_o2"), 0.0);
+        ASSERT_LT(p.get("gas.h2_in_o2"), 1.0);
+    }
+    EXPECT_EQ(solved, 1000);
+}
+
+INSTANTIATE_TEST_SUITE_P(AllTechnologies, UnitBalances, ::testing::Values("pem", "alkaline", "solid_oxide", "brine"));
+
+class UnitSpecs : public ::testing::TestWithParam<const char*> {};
+
+TEST_P(UnitSpecs, PowerHydrogenAndVoltageSpecsMeetTheirSetpoints) {
+    Probe p(minimal(GetParam()));
+    p.block.solve();
+    const double j0 = p.get("cell.current_density");
+    const double power = p.get("stack.power"), h2 = p.get("product.hydrogen"), v = p.get("cell.voltage");
+    for (double f : {0.3, 0.77, 1.0}) {
+        p.block.set_spec(Spec::power);
+        p.set("in.power", f * power);
+        p.block.solve();
+        EXPECT_LT(std::fabs(p.get("stack.power") / (f * power) - 1.0), 1e-9) << f;
+        p.block.set_spec(Spec::hydrogen_rate);
+        p.set("in.hydrogen_rate", f * h2);
+        p.block.solve();
+        EXPECT_LT(std::fabs(p.get("product.hydrogen") / (f * h2) - 1.0), 1e-9) << f;
+    }
+    p.block.set_spec(Spec::voltage);
+    p.set("in.voltage", v);
+    p.block.solve();
+    EXPECT_NEAR(p.get("cell.current_density"), j0, 1e-6 * j0);
+}
+
+TEST_P(UnitSpecs, InfeasiblePowerNamesTheLimitAndKeepsTheLastState) {
+    Probe p(minimal(GetParam()));
+    p.block.solve();
+    const double v_before = p.get("cell.voltage"), t_before = p.get("in.temperature");
+    p.block.set_spec(Spec::power);
+    p.set("in.power", 1e12);
+    try {
+        p.block.solve();
+        FAIL() << "an infeasible power was accepted";
+    } catch (const Error& e) {
+        EXPECT_EQ(e.kind(), ErrorKind::infeasible);
+        EXPECT_THAT(e.what(), HasSubstr("maximum current density"));
+        EXPECT_THAT(e.what(), HasSubstr("in.power"));
+    }
+    EXPECT_TRUE(p.block.solved());
+    EXPECT_EQ(p.get("cell.voltage"), v_before);
+    EXPECT_EQ(p.get("in.temperature"), t_before);
+}
+
+TEST_P(UnitSpecs, HeatDutyFollowsTheThermoneutralVoltage) {
+    // With feed at stack temperature, the duty is the electrical power above what the net
+    // hydrogen product's reaction enthalpy absorbs (N·I·E_tn per unit of Faraday efficiency),
+    // less the latent heat of the vapour leaving with the gases (PHYSICS.md, "Thermoneutral
+    // operation"). Side reactions (crossover, caustic back-migration) make that estimate
+    // approximate: it must agree in sign wherever it exceeds 5 % of the power.
+    const std::string tech = GetParam();
+    Probe p(minimal(tech.c_str()));
+    p.block.solve();
+    const double t = p.get("in.temperature");
+    p.set("in.feed_temperature", t);
+    const double j_max = p.get("param.current_density_max");
+    const double latent =
+        tech == "solid_oxide" ? 0.0 : ideal_gas(Species::water_vapour, t).enthalpy - liquid_water_standard(t).enthalpy;
+    int above = 0, below = 0;
+    for (double f = 0.02; f <= 0.95; f += 0.01) {
+        p.set("in.current_density", f * j_max);
+        p.block.solve();
+        const double power = p.get("stack.power");
+        const double h2_moles = p.get("product.hydrogen") / molar_mass::H2;
+        double vapour = stream(p, "anode").h2o;
+        if (tech != "solid_oxide") vapour += stream(p, "cathode").h2o;  // SOEC steam is fed as steam
+        const double estimate = power - h2_moles * 2 * kFaraday * p.get("cell.thermoneutral_voltage") - vapour * latent;
+        if (estimate > 0.05 * power) { EXPECT_GT(p.get("heat.duty"), 0.0) << f; ++above; }
+        if (estimate < -0.05 * power) { EXPECT_LT(p.get("heat.duty"), 0.0) << f; ++below; }
+        if (p.get("cell.voltage") > p.get("cell.thermoneutral_voltage") + 0.05 && vapour == 0.0) {
+            EXPECT_GT(p.get("heat.duty"), 0.0) << "above thermoneutral without vapour";
+        }
+    }
+    EXPECT_GT(above + below, 10);
+}
+
+INSTANTIATE_TEST_SUITE_P(AllTechnologies, UnitSpecs, ::testing::Values("pem", "alkaline", "solid_oxide", "brine"));
+
+TEST(UnitAlarms, LowLoadRaisesHydrogenInOxygenWarning) {
+    Probe p(minimal("alkaline"));
+    p.block.solve();
+    const double j_max = p.get("param.current_density_max");
+    p.set("in.current_density", 0.5 * j_max);
+    EXPECT_FALSE(p.block.solve().warning);
+    double previous = p.get("gas.h2_in_o2");
+    bool warned = false;
+    for (double f = 0.4; f > 0.004; f *= 0.7) {
+        p.set("in.current_density", f * j_max);
+        const auto outcome = p.block.solve();
+        EXPECT_GT(p.get("gas.h2_in_o2"), previous);  // purity worsens as load falls
+        previous = p.get("gas.h2_in_o2");
+        if (p.get("alarm.h2_in_o2_warning") > 0) {
+            warned = true;
+            EXPECT_TRUE(outcome.warning);
+            EXPECT_THAT(outcome.message, HasSubstr("hydrogen in the anode gas"));
+        }
+    }
+    EXPECT_TRUE(warned);
+}
+
+TEST(UnitLifeCycle, OutputsAreStaleAfterASetAndInputsAreChecked) {
+    Probe p(minimal("pem"));
+    EXPECT_THROW(p.get("cell.voltage"), Error);
+    p.block.solve();
+    const double v = p.get("cell.voltage");
+    p.set("in.temperature", 340.0);
+    try {
+        p.get("cell.voltage");
+        FAIL();
+    } catch (const Error& e) {
+        EXPECT_EQ(e.kind(), ErrorKind::wrong_state);
+    }
+    try {
+        p.set("in.power", 1e6);  // not the active spec
+        FAIL();
+    } catch (const Error& e) {
+        EXPECT_EQ(e.kind(), ErrorKind::wrong_state);
+        EXPECT_THAT(e.what(), HasSubstr("current_density"));
+    }
+    EXPECT_THROW(p.set("cell.voltage", 2.0), Error);
+    EXPECT_THROW(p.set("in.temperature", std::nan("")), Error);
+    EXPECT_THROW(p.set("in.pressure_anode", -1.0), Error);
+    EXPECT_EQ(p.get("in.temperature"), 340.0);  // failed sets changed nothing
+    p.block.solve();
+    EXPECT_NE(p.get("cell.voltage"), v);  // colder: a different voltage
+}
