@@ -59,6 +59,7 @@ struct CellResult {
     double faraday_efficiency = 1;  // hydrogen basis: H2 leaving in the cathode product / (j/2F)
     double h2_in_o2 = 0;            // mol/mol, dry anode gas (H2 in the main anode gas, Cl2 for brine)
     double o2_in_h2 = 0;            // mol/mol, dry cathode gas
+    double o2_in_cl2 = 0;           // mol/mol, dry anode gas of brine cells: O2/(Cl2 + O2)
 
     // Dry products leaving each side and components taken from the feed, mol/(m² s).
     // Element balances over feed → cathode_out + anode_out close exactly (tested).
@@ -96,6 +97,10 @@ public:
     virtual std::unique_ptr<Cell> clone() const = 0;
     /// Largest current density the model accepts at this temperature/pressure, A/m².
     virtual double current_density_limit(const OperatingPoint& point) const = 0;
+    /// Smallest positive current density the model accepts (where the gas produced still
+    /// exceeds the gas crossing the separator), A/m²; a hint, 0 when there is no such limit.
+    /// Between 0 (open circuit, always accepted) and this value evaluate() throws.
+    virtual double current_density_minimum(const OperatingPoint&) const { return 0.0; }
 };
 
 /// Parameter descriptions of a technology (defaults with their sources).

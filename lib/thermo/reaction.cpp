@@ -21,12 +21,22 @@ ReactionProperties combine(double temperature, double enthalpy, double entropy, 
 }  // namespace
 
 ReactionProperties water_splitting(double temperature, WaterFeed feed) {
+    // Spec solves and batches call this many times at one temperature: a one-entry memo per
+    // thread and feed returns the identical result without recomputing IF97 (pure function;
+    // thread_local keeps handles on different threads independent).
+    thread_local double memo_temperature[2] = {-1.0, -1.0};
+    thread_local ReactionProperties memo_result[2];
+    const int slot = feed == WaterFeed::liquid ? 0 : 1;
+    if (temperature == memo_temperature[slot]) return memo_result[slot];
     const auto h2 = ideal_gas(Species::hydrogen, temperature);
     const auto o2 = ideal_gas(Species::oxygen, temperature);
     const auto water =
         feed == WaterFeed::liquid ? liquid_water_standard(temperature) : ideal_gas(Species::water_vapour, temperature);
-    return combine(temperature, h2.enthalpy + 0.5 * o2.enthalpy - water.enthalpy,
-                   h2.entropy + 0.5 * o2.entropy - water.entropy, 2);
+    const auto r = combine(temperature, h2.enthalpy + 0.5 * o2.enthalpy - water.enthalpy,
+                           h2.entropy + 0.5 * o2.entropy - water.entropy, 2);
+    memo_temperature[slot] = temperature;
+    memo_result[slot] = r;
+    return r;
 }
 
 ReactionProperties brine_electrolysis(double temperature) {

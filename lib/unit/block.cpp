@@ -198,28 +198,38 @@ double Block::solve_current_density(double j_max) {
             default: return pr.cell.voltage;
         }
     };
-    if (target == 0.0 && spec_ != Spec::voltage) return 0.0;
+    if (target == 0.0 && spec_ != Spec::voltage) return 0.0;  // open circuit
+    const auto& info = variable_info(drive_input(spec_));
     const double q_max = quantity(j_max);
-    if (q_max < target) {
-        const auto& info = variable_info(drive_input(spec_));
+    if (q_max < target)
         throw Error(ErrorKind::infeasible,
                     fmt::format("{} = {:.6g} {} is above what the plant reaches at its maximum current density "
                                 "{:.6g} A/m2 ({:.6g} {})",
                                 info.name, target, info.unit, j_max, q_max, info.unit));
+    // Lower end of the bracket: the smallest current density the cell accepts (below it the
+    // gas crossing the separator exceeds the gas made); the cell's hint, widened if needed.
+    const OperatingPoint op{j_max, v_[in_temperature], v_[in_pressure_anode], v_[in_pressure_cathode]};
+    double j_lo = design_.cell->current_density_minimum(op) * (1.0 + 1e-9);
+    double q_lo = 0.0;
+    for (int tries = 0;; ++tries) {
+        try {
+            q_lo = quantity(j_lo);
+            break;
+        } catch (const Error& e) {
+            if (e.kind() != ErrorKind::out_of_range || tries >= 60) throw;
+            j_lo = j_lo > 0 ? std::min(j_max, j_lo * 1.5) : 1e-9 * j_max;
+        }
     }
-    const double j_lo = 0.0;
-    const double q_lo = quantity(j_lo);
-    if (q_lo > target) {
-        const auto& info = variable_info(drive_input(spec_));
+    if (q_lo > target)
         throw Error(ErrorKind::infeasible,
-                    fmt::format("{} = {:.6g} {} is below what the plant gives at zero current ({:.6g} {})", info.name,
-                                target, info.unit, q_lo, info.unit));
-    }
+                    fmt::format("{} = {:.6g} {} is below what the plant gives at its smallest current density "
+                                "{:.6g} A/m2 ({:.6g} {}): below it the gas crossing the separator exceeds the gas made",
+                                info.name, target, info.unit, j_lo, q_lo, info.unit));
     auto f = [&](double j) { return quantity(j) - target; };
     // Warm start: bracket around the last solution when it still brackets the root.
     double a = j_lo, b = j_max, fa = q_lo - target, fb = q_max - target;
-    if (last_current_density_ > 0 && last_current_density_ < j_max) {
-        const double lo = std::max(j_lo, last_current_density_ * 0.98), hi = std::min(j_max, last_current_density_ * 1.02);
+    if (last_current_density_ * 0.98 > j_lo && last_current_density_ * 1.02 < j_max) {
+        const double lo = last_current_density_ * 0.98, hi = last_current_density_ * 1.02;
         const double flo = f(lo);
         if (flo <= 0) {
             const double fhi = f(hi);
@@ -343,6 +353,7 @@ void Block::fill_outputs(const PointResult& r) {
     v_[stream_anode_x_h2o] = frac(vap_a, gas_a);
     v_[gas_h2_in_o2] = c.h2_in_o2;
     v_[gas_o2_in_h2] = c.o2_in_h2;
+    v_[gas_o2_in_cl2] = c.o2_in_cl2;
 
     // Energy balance around the stacks, one enthalpy reference for all species (elements at
     // 298.15 K and 1 bar; formation enthalpies included): P_DC + H_feed = H_products + Q + Q_loss.

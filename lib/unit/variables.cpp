@@ -70,6 +70,7 @@ const VariableInfo kTable[kVarCount] = {
 
     {"gas.h2_in_o2", "mol/mol", O, A, "hydrogen in the dry anode gas"},
     {"gas.o2_in_h2", "mol/mol", O, A, "oxygen in the dry cathode gas"},
+    {"gas.o2_in_cl2", "mol/mol", O, B, "oxygen in the dry chlorine (anode) gas"},
 
     {"heat.duty", "W", O, A, "heat to remove to hold the stack temperature (negative: heat to supply)"},
     {"heat.loss", "W", O, A, "heat lost to ambient"},

@@ -60,7 +60,7 @@ enum Var : int {
     stream_anode_mass_flow, stream_anode_temperature, stream_anode_pressure, stream_anode_x_o2,
     stream_anode_x_h2, stream_anode_x_cl2, stream_anode_x_h2o,
     // purity
-    gas_h2_in_o2, gas_o2_in_h2,
+    gas_h2_in_o2, gas_o2_in_h2, gas_o2_in_cl2,
     // heat
     heat_duty, heat_loss,
     // performance

@@ -263,3 +263,25 @@ TEST(UnitLifeCycle, OutputsAreStaleAfterASetAndInputsAreChecked) {
     p.block.solve();
     EXPECT_NE(p.get("cell.voltage"), v);  // colder: a different voltage
 }
+
+TEST(UnitSpecs, TargetsBelowTheSmallestCurrentDensityAreInfeasible) {
+    // At 30 bar the membrane passes enough hydrogen that a PEM cell needs a minimum current
+    // to make net gas; a power or hydrogen target under it cannot be met.
+    Probe p(R"({"technology":"pem","stack":{"cells":20,"active_area":0.05,"stacks":3},
+                "operating":{"spec":"power","power":1000,"pressure_cathode":"30 bar"}})");
+    p.set("in.power", 1.0);
+    try {
+        p.block.solve();
+        FAIL() << "1 W accepted";
+    } catch (const Error& e) {
+        EXPECT_EQ(e.kind(), ErrorKind::infeasible);
+        EXPECT_THAT(e.what(), HasSubstr("smallest current density"));
+    }
+    const double j_min = p.block.design().cell->current_density_minimum({1e4, p.get("in.temperature"), 101325, 30e5});
+    EXPECT_GT(j_min, 0.0);
+    // Just above the minimum the power spec solves, and lands above it.
+    p.set("in.power", 20 * 3 * 0.05 * 1.5 * 3 * j_min);
+    p.block.solve();
+    EXPECT_GT(p.get("cell.current_density"), j_min);
+    EXPECT_GT(p.get("product.hydrogen"), 0.0);
+}

@@ -189,6 +189,21 @@ public:
         return std::min(envelope_.current_density_max, limiting_current_density_ * (1.0 - 1e-9));
     }
 
+    // Where the electrode current just makes up for the gas crossing the separator; with bypass
+    // currents the terminal current must be larger (exact for the fixed shunt fraction, a lower
+    // bound otherwise, which the unit layer widens).
+    double current_density_minimum(const OperatingPoint& p) const override {
+        const double t = p.temperature;
+        const double a_w = koh_water_activity_balej(molality_, t);
+        const double p_vapour = a_w * water_saturation_pressure(t);
+        const double n_h2 = permeation_flux(gas_permeability(h2_, t), p.pressure_cathode - p_vapour + supersaturation_,
+                                            separator_thickness_);
+        const double n_o2 = permeation_flux(gas_permeability(o2_, t), p.pressure_anode - p_vapour + supersaturation_,
+                                            separator_thickness_);
+        const double j_min = std::max(2.0 * kFaraday * (n_h2 + 2.0 * recombination_ * n_o2), 4.0 * kFaraday * n_o2);
+        return (!ulleberg_ && shunt_model_ == 1) ? j_min / (1.0 - shunt_fraction_) : j_min;
+    }
+
     CellResult evaluate(const OperatingPoint& p) const override {
         CellResult r;
         r.warnings = check_envelope(envelope_, p, "alkaline");

@@ -128,6 +128,11 @@ public:
         return std::min(envelope_.current_density_max, limiting_current_density_ * (1.0 - 1e-9));
     }
 
+    double current_density_minimum(const OperatingPoint& p) const override {
+        const auto x = crossover(p);
+        return std::max(2.0 * kFaraday * (x.n_h2 + 2.0 * recombination_ * x.n_o2), 4.0 * kFaraday * x.n_o2);
+    }
+
     CellResult evaluate(const OperatingPoint& p) const override {
         CellResult r;
         r.warnings = check_envelope(envelope_, p, "pem");
@@ -151,12 +156,8 @@ public:
         r.ohmic = j * (thickness_ / sigma + contact_resistance_);
         r.voltage = r.reversible_voltage + r.activation_anode + r.activation_cathode + r.ohmic + r.concentration;
 
-        // Crossover driven by the partial pressures of the wet gases (saturated at T, a_w = 1).
-        const double p_sat = water_saturation_pressure(t);
-        const double p_h2 = p.pressure_cathode - p_sat, p_o2 = p.pressure_anode - p_sat;
-        const double n_h2 = permeation_flux(gas_permeability(h2_, t), p_h2, thickness_) +
-                            darcy_gas_flux(darcy_, p_h2, p.pressure_cathode - p.pressure_anode, thickness_);
-        const double n_o2 = permeation_flux(gas_permeability(o2_, t), p_o2, thickness_);
+        const auto x = crossover(p);
+        const double n_h2 = x.n_h2, n_o2 = x.n_o2;
         const double n_o2_recombined = recombination_ * n_o2;
 
         const double h2_made = j / (2.0 * kFaraday), o2_made = j / (4.0 * kFaraday);
@@ -185,6 +186,19 @@ public:
     }
 
 private:
+    struct Crossover {
+        double n_h2, n_o2;  // mol/(m² s)
+    };
+    // Crossover driven by the partial pressures of the wet gases (saturated at T, a_w = 1).
+    Crossover crossover(const OperatingPoint& p) const {
+        const double t = p.temperature;
+        const double p_sat = water_saturation_pressure(t);
+        const double p_h2 = p.pressure_cathode - p_sat, p_o2 = p.pressure_anode - p_sat;
+        return {permeation_flux(gas_permeability(h2_, t), p_h2, thickness_) +
+                    darcy_gas_flux(darcy_, p_h2, p.pressure_cathode - p.pressure_anode, thickness_),
+                permeation_flux(gas_permeability(o2_, t), p_o2, thickness_)};
+    }
+
     Envelope envelope_{298.15, 373.15, 8e4, 1e7, 5e4, 323.15, 363.15};
     double thickness_, water_content_, contact_resistance_;
     ElectrodeKinetics anode_, cathode_;
