@@ -736,7 +736,8 @@ std::vector<HalfReaction> parse_reactions(const json::object& reactions, const c
     return out;
 }
 
-std::shared_ptr<const Cell> build_custom_cell(const json::value* cell, const json::value* reactions) {
+std::shared_ptr<const Cell> build_custom_cell(const json::value* cell, const json::value* reactions,
+                                              std::shared_ptr<const CustomCellSpec>& spec_out) {
     if (reactions == nullptr)
         fail("$", "missing required key 'reactions': the custom technology is built from its reaction table");
     CustomCellSpec spec;
@@ -766,7 +767,9 @@ std::shared_ptr<const Cell> build_custom_cell(const json::value* cell, const jso
         fail("$.cell", fmt::format("pressure_min {:g} Pa must be below pressure_max {:g} Pa", e.pressure_min,
                                    e.pressure_max));
     try {
-        return make_custom_cell(spec);
+        auto built = make_custom_cell(spec);
+        spec_out = std::make_shared<const CustomCellSpec>(std::move(spec));
+        return built;
     } catch (const Error& e) {
         fail("$.reactions", e.what());
     }
@@ -910,7 +913,7 @@ PlantDesign parse_config(std::string_view json_text) {
     check_alarms(d.alarms);
 
     if (d.technology == Technology::custom) {
-        d.cell = build_custom_cell(deferred.cell, deferred.reactions);
+        d.cell = build_custom_cell(deferred.cell, deferred.reactions, d.custom);
     } else {
         if (deferred.reactions != nullptr)
             fail("$.reactions", fmt::format("only the custom technology takes reactions; technology is '{}'",

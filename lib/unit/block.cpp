@@ -11,6 +11,7 @@
 #include "thermo/species.hpp"
 #include "thermo/water.hpp"
 #include "unit/root.hpp"
+#include "cells/custom.hpp"
 
 namespace ely {
 
@@ -51,16 +52,13 @@ struct Block::PointResult {
 
 Block::Block(PlantDesign design) : design_(std::move(design)), spec_(design_.operating.spec) {
     if (!design_.cell) throw Error(ErrorKind::internal, "block created without a cell model");
-    var_to_index_.fill(-1);
     const uint32_t bit = tech_bit(design_.technology);
     for (int i = 0; i < kVarCount; ++i) {
         const auto v = static_cast<Var>(i);
-        if (variable_info(v).technologies & bit) {
-            var_to_index_[i] = static_cast<int32_t>(index_to_var_.size());
-            index_to_var_.push_back(v);
-        }
+        if (variable_info(v).technologies & bit) index_to_var_.push_back(v);
     }
-    v_.fill(kNaN);
+    add_reaction_variables();
+    v_.assign(kVarCount + (extra_ ? extra_->info.size() : 0), kNaN);
     const auto& op = design_.operating;
     v_[in_current_density] = op.current_density;
     v_[in_current] = op.current;
@@ -90,7 +88,32 @@ Block::Block(PlantDesign design) : design_(std::move(design)), spec_(design_.ope
     last_good_ = v_;
 }
 
-const VariableInfo& Block::variable(int32_t index) const { return variable_info(var_of(index)); }
+void Block::add_reaction_variables() {
+    if (!design_.custom) return;
+    auto extra = std::make_shared<ExtraVariables>();
+    auto add_for = [&](const std::vector<HalfReaction>& reactions, const char* electrode) {
+        for (std::size_t k = 0; k < reactions.size(); ++k) {
+            const auto& r = reactions[k];
+            const std::string base = fmt::format("reaction.{}_{}.", electrode, k + 1);
+            const auto keep = [&](std::string text) -> const char* { return extra->text.emplace_back(std::move(text)).c_str(); };
+            extra->info.push_back({keep(base + "current_efficiency"), "1", Causality::output, kTechCustom,
+                                   keep(fmt::format("share of the {} current carried by '{}' (product {})", electrode,
+                                                    r.name, r.product))});
+            extra->info.push_back({keep(base + "product_rate"), "kg/s", Causality::output, kTechCustom,
+                                   keep(fmt::format("{} made by '{}', plant total (NaN without its molar mass)",
+                                                    r.product, r.name))});
+        }
+    };
+    add_for(design_.custom->anode, "anode");
+    add_for(design_.custom->cathode, "cathode");
+    for (std::size_t i = 0; i < extra->info.size(); ++i) index_to_var_.push_back(static_cast<Var>(kVarCount + i));
+    extra_ = std::move(extra);
+}
+
+const VariableInfo& Block::variable(int32_t index) const {
+    const Var v = var_of(index);
+    return v < kVarCount ? variable_info(v) : extra_->info[static_cast<std::size_t>(v - kVarCount)];
+}
 
 Var Block::var_of(int32_t index) const {
     if (index < 0 || index >= variable_count())
@@ -100,8 +123,8 @@ Var Block::var_of(int32_t index) const {
 }
 
 int32_t Block::find(std::string_view name) const {
-    for (std::size_t i = 0; i < index_to_var_.size(); ++i)
-        if (name == variable_info(index_to_var_[i]).name) return static_cast<int32_t>(i);
+    for (int32_t i = 0; i < variable_count(); ++i)
+        if (name == variable(i).name) return i;
     for (int i = 0; i < kVarCount; ++i)
         if (name == variable_info(static_cast<Var>(i)).name)
             throw Error(ErrorKind::unknown_name, fmt::format("variable '{}' does not exist for technology '{}'",
@@ -111,7 +134,7 @@ int32_t Block::find(std::string_view name) const {
 
 void Block::set(int32_t index, double value) {
     const Var v = var_of(index);
-    const auto& info = variable_info(v);
+    const auto& info = variable(index);
     if (info.causality != Causality::input)
         throw Error(ErrorKind::invalid_argument,
                     fmt::format("'{}' is {}; only inputs can be set", info.name,
@@ -132,12 +155,12 @@ void Block::set(int32_t index, double value) {
 
 double Block::get(int32_t index) const {
     const Var v = var_of(index);
-    if (variable_info(v).causality == Causality::output && !outputs_current_)
+    const auto& info = variable(index);
+    if (info.causality == Causality::output && !outputs_current_)
         throw Error(ErrorKind::wrong_state,
-                    has_solution_ ? fmt::format("'{}' is stale: inputs changed since the last solve; solve first",
-                                                variable_info(v).name)
-                                  : fmt::format("'{}' has no value yet: the block has not been solved", variable_info(v).name));
-    return v_[v];
+                    has_solution_ ? fmt::format("'{}' is stale: inputs changed since the last solve; solve first", info.name)
+                                  : fmt::format("'{}' has no value yet: the block has not been solved", info.name));
+    return v_[static_cast<std::size_t>(v)];
 }
 
 void Block::set_spec(Spec spec) {
@@ -400,6 +423,20 @@ void Block::fill_outputs(const PointResult& r) {
     v_[alarm_current_density_high] = c.current_density > j_rated * (1 + 1e-12) ? 1.0 : 0.0;
     v_[alarm_load_low] = c.current_density < design_.limits.min_load_fraction * j_rated ? 1.0 : 0.0;
     v_[alarm_extrapolated] = c.warnings != 0 ? 1.0 : 0.0;
+    if (extra_) {
+        // Custom cell: each reaction's share of its electrode current and its product rate.
+        const auto& spec = *design_.custom;
+        const auto rates = custom_product_rates(spec, c);
+        const double area_total = r.cells_total * design_.stack.active_area;
+        std::size_t slot = kVarCount;
+        std::size_t k = 0;
+        for (const auto* list : {&spec.anode, &spec.cathode})
+            for (const auto& reaction : *list) {
+                v_[slot++] = c.reaction_current_efficiency.at(k);
+                v_[slot++] = reaction.product_molar_mass > 0 ? rates.at(k) * area_total * reaction.product_molar_mass : kNaN;
+                ++k;
+            }
+    }
     v_[alarm_any] = (v_[alarm_h2_in_o2_warning] + v_[alarm_h2_in_o2_trip] + v_[alarm_temperature_high] +
                      v_[alarm_current_density_high] + v_[alarm_load_low] + v_[alarm_extrapolated]) > 0 ? 1.0 : 0.0;
 }
@@ -415,8 +452,9 @@ std::string Block::report_json() const {
     }
     out += "\",\"variables\":{";
     bool first = true;
-    for (Var v : index_to_var_) {
-        const auto& info = variable_info(v);
+    for (int32_t i = 0; i < variable_count(); ++i) {
+        const auto& info = variable(i);
+        const std::size_t v = static_cast<std::size_t>(index_to_var_[static_cast<std::size_t>(i)]);
         out += first ? "" : ",";
         first = false;
         if (std::isfinite(v_[v])) out += fmt::format("\"{}\":{{\"value\":{:.17g},\"unit\":\"{}\"}}", info.name, v_[v], info.unit);

@@ -6,6 +6,8 @@
 // successful solve, so the block always holds a consistent solved state (or none yet).
 #include <array>
 #include <cstdint>
+#include <deque>
+#include <memory>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -44,9 +46,16 @@ public:
     /// The solved state as a JSON object (inputs, outputs, alarms).
     std::string report_json() const;
 
-    double value(Var v) const { return v_[v]; }  // raw access for the C layer's batch path
-
 private:
+    // Variables a configuration adds to the table: one current efficiency and one product rate
+    // per half-reaction of a custom cell ("reaction.cathode_1.current_efficiency", ...).
+    // Immutable once built and shared by clones, so the names stay valid while any clone lives.
+    struct ExtraVariables {
+        std::deque<std::string> text;
+        std::vector<VariableInfo> info;
+    };
+    void add_reaction_variables();
+
     struct PointResult;
     void evaluate_at(double current_density, PointResult& out) const;
     double max_current_density(double temperature, double p_anode, double p_cathode) const;
@@ -55,10 +64,10 @@ private:
 
     PlantDesign design_;
     std::vector<Var> index_to_var_;
-    std::array<int32_t, kVarCount> var_to_index_{};
+    std::shared_ptr<const ExtraVariables> extra_;
     Spec spec_;
-    std::array<double, kVarCount> v_{};
-    std::array<double, kVarCount> last_good_{};
+    std::vector<double> v_;          // values by Var (table variables, then extra ones)
+    std::vector<double> last_good_;  // v_ at the last successful solve
     bool has_solution_ = false;
     bool outputs_current_ = false;
     double rectifier_rated_power_ = 0;

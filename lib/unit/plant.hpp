@@ -5,6 +5,7 @@
 #include <string>
 
 #include "cells/cell.hpp"
+#include "cells/custom.hpp"
 
 namespace ely {
 
@@ -86,6 +87,7 @@ struct PlantDesign {
     OperatingDefaults operating;
     bool drag_water_returned = true;  // PEM: water dragged to the cathode is separated and returned
     std::shared_ptr<const Cell> cell;  // the cell model (immutable after creation, shared by clones)
+    std::shared_ptr<const CustomCellSpec> custom;  // the reaction table of a custom cell, else null
 };
 
 }  // namespace ely

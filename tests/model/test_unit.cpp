@@ -285,3 +285,38 @@ TEST(UnitSpecs, TargetsBelowTheSmallestCurrentDensityAreInfeasible) {
     EXPECT_GT(p.get("cell.current_density"), j_min);
     EXPECT_GT(p.get("product.hydrogen"), 0.0);
 }
+
+TEST(UnitExamples, EveryBundledConfigurationSolves) {
+    const char* files[] = {"examples/demo-plant.json",       "examples/zinc-electrowinning.json",
+                           "examples/minimal/pem.json",      "examples/minimal/alkaline.json",
+                           "examples/minimal/solid_oxide.json", "examples/minimal/brine.json",
+                           "examples/minimal/custom.json"};
+    for (const char* f : files) {
+        Block b(load_config_file(std::string(ELY_SOURCE_DIR) + "/" + f));
+        EXPECT_NO_THROW(b.solve()) << f;
+        EXPECT_TRUE(b.solved()) << f;
+    }
+}
+
+TEST(UnitCustom, ReactionSharesAndProductRatesThroughTheBlock) {
+    // Zinc deposition competing with hydrogen evolution (the invented demo cell): shares at
+    // each electrode sum to 1; each product rate is Faraday's law on its share; hydrogen's
+    // share grows as the zinc-ion limiting current is approached.
+    Block b(load_config_file(std::string(ELY_SOURCE_DIR) + "/examples/zinc-electrowinning.json"));
+    const auto get = [&](const char* n) { return b.get(b.find(n)); };
+    double previous_h2_share = -1;
+    for (double j : {200.0, 500.0, 900.0, 1200.0}) {
+        b.set(b.find("in.current_density"), j);
+        b.solve();
+        const double zn = get("reaction.cathode_1.current_efficiency"), h2 = get("reaction.cathode_2.current_efficiency");
+        EXPECT_NEAR(zn + h2, 1.0, 1e-12);
+        EXPECT_NEAR(get("reaction.anode_1.current_efficiency"), 1.0, 1e-12);
+        const double current = j * 1.6 * 40;  // A, all cells
+        EXPECT_NEAR(get("reaction.cathode_1.product_rate"), zn * current / (2 * kFaraday) * 65.38e-3, 1e-12);
+        EXPECT_NEAR(get("product.hydrogen"), h2 * current / (2 * kFaraday) * molar_mass::H2, 1e-12);
+        EXPECT_EQ(get("cell.faraday_efficiency"), h2);  // hydrogen basis
+        EXPECT_GT(h2, previous_h2_share);
+        previous_h2_share = h2;
+    }
+    EXPECT_THROW(b.find("product.chlorine"), Error);
+}

@@ -93,7 +93,7 @@ typedef struct ely_block ely_block;
 
 /* Description of one variable. The caller sets struct_size = sizeof(ely_variable_info);
  * later versions of this struct only grow at the end. Strings are owned by the library
- * and stay valid for the life of the process. */
+ * and stay valid while the block, or any clone of it, exists. */
 typedef struct ely_variable_info {
     uint32_t struct_size;
     int32_t causality;       /* ELY_CAUSALITY_* */
