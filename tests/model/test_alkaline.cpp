@@ -13,24 +13,14 @@
 #include "thermo/constants.hpp"
 #include "thermo/error.hpp"
 #include "thermo/reaction.hpp"
+#include "support.hpp"
 
 using namespace ely;
+using ely::test::expect_error;
+using ely::test::rel;
 using ::testing::HasSubstr;
 
 namespace {
-
-double rel(double a, double b) { return std::fabs(a / b - 1.0); }
-
-template <class F>
-void expect_error(F&& f, ErrorKind kind, const char* fragment) {
-    try {
-        f();
-        ADD_FAILURE() << "no ely::Error thrown; expected one containing '" << fragment << "'";
-    } catch (const Error& e) {
-        EXPECT_EQ(e.kind(), kind) << e.what();
-        EXPECT_THAT(e.what(), HasSubstr(fragment));
-    }
-}
 
 std::unique_ptr<Cell> alkaline(std::initializer_list<std::pair<const char*, double>> set = {}) {
     ParameterValues v(alkaline_parameters());

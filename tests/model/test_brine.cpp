@@ -20,6 +20,7 @@
 #include "thermo/error.hpp"
 #include "thermo/reaction.hpp"
 #include "thermo/water.hpp"
+#include "support.hpp"
 
 // Allocation counter for the "evaluate() does not allocate" checks. The replacement operator
 // new is weak and its counters are inline variables, so several test files may carry the same
@@ -37,20 +38,10 @@ __attribute__((weak)) void operator delete(void* p) noexcept { std::free(p); }
 __attribute__((weak)) void operator delete(void* p, std::size_t) noexcept { std::free(p); }
 
 using namespace ely;
+using ely::test::expect_error;
 using ::testing::HasSubstr;
 
 namespace {
-template <class F>
-void expect_error(F&& f, ErrorKind kind, const char* fragment) {
-    try {
-        f();
-        ADD_FAILURE() << "no ely::Error thrown; expected one containing '" << fragment << "'";
-    } catch (const Error& e) {
-        EXPECT_EQ(e.kind(), kind) << e.what();
-        EXPECT_THAT(e.what(), HasSubstr(fragment));
-    }
-}
-
 std::unique_ptr<Cell> brine_cell(std::initializer_list<std::pair<const char*, double>> settings = {}) {
     ParameterValues v(brine_parameters());
     for (const auto& [key, value] : settings) v.set(key, value);

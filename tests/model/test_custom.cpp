@@ -15,6 +15,7 @@
 #include "thermo/constants.hpp"
 #include "thermo/error.hpp"
 #include "thermo/reaction.hpp"
+#include "support.hpp"
 
 // Same weak counting operator new as in test_brine.cpp (identical inline counters), see there.
 namespace ely_test_alloc {
@@ -30,6 +31,8 @@ __attribute__((weak)) void operator delete(void* p) noexcept { std::free(p); }
 __attribute__((weak)) void operator delete(void* p, std::size_t) noexcept { std::free(p); }
 
 using namespace ely;
+using ely::test::expect_error;
+using ely::test::rel;
 using ::testing::HasSubstr;
 
 namespace {
@@ -37,17 +40,6 @@ constexpr double kInf = std::numeric_limits<double>::infinity();
 
 // CRC standard potentials, V vs SHE
 constexpr double kEO2 = 1.229, kEH2 = 0.0, kEZn = -0.7618, kECl2 = 1.35827, kEWaterReduction = -0.8277;
-
-template <class F>
-void expect_error(F&& f, ErrorKind kind, const char* fragment) {
-    try {
-        f();
-        ADD_FAILURE() << "no ely::Error thrown; expected one containing '" << fragment << "'";
-    } catch (const Error& e) {
-        EXPECT_EQ(e.kind(), kind) << e.what();
-        EXPECT_THAT(e.what(), HasSubstr(fragment));
-    }
-}
 
 HalfReaction reaction(const char* name, const char* product, int n, double e0, double j0, double alpha_f,
                       double alpha_b, double limit = kInf, double reactant_activity = 1.0) {

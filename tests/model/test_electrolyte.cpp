@@ -9,21 +9,14 @@
 #include "electrochem/electrolyte.hpp"
 #include "thermo/constants.hpp"
 #include "thermo/error.hpp"
+#include "support.hpp"
 
 using namespace ely;
+using ely::test::expect_error;
+using ely::test::rel;
 using ::testing::HasSubstr;
 
 namespace {
-template <class F>
-void expect_error(F&& f, ErrorKind kind, const char* fragment) {
-    try {
-        f();
-        ADD_FAILURE() << "no ely::Error thrown; expected one containing '" << fragment << "'";
-    } catch (const Error& e) {
-        EXPECT_EQ(e.kind(), kind) << e.what();
-        EXPECT_THAT(e.what(), HasSubstr(fragment));
-    }
-}
 constexpr double k25C = 298.15;
 }  // namespace
 

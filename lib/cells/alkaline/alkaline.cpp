@@ -20,6 +20,7 @@
 #include <string>
 #include <vector>
 
+#include "cells/cell_support.hpp"
 #include "cells/technologies.hpp"
 #include "electrochem/conduction.hpp"
 #include "electrochem/crossover.hpp"
@@ -124,25 +125,6 @@ const std::vector<ParameterInfo> kAlkalineParameters = {
      "typical value, from memory"},
 };
 
-uint32_t read_choice(const ParameterValues& v, const char* key, int max) {
-    const double x = v.get(key);
-    if (x != std::floor(x) || x < 0.0 || x > max)
-        throw Error(ErrorKind::invalid_argument, fmt::format("{} is {:g}; it must be an integer 0..{}", key, x, max));
-    return static_cast<uint32_t>(x);
-}
-
-ElectrodeKinetics read_kinetics(const ParameterValues& v, const char* electrode) {
-    const std::string e(electrode);
-    return {v.get(e + "_exchange_current_density"), v.get(e + "_activation_energy"), kReferenceTemperature,
-            v.get(e + "_transfer_coefficient_forward"), v.get(e + "_transfer_coefficient_backward")};
-}
-
-double activation_overpotential(const ElectrodeKinetics& k, bool tafel, double j, double t) {
-    const double j0 = exchange_current_density(k, t);
-    return tafel ? tafel_overpotential(j, j0, k.alpha_forward, t)
-                 : butler_volmer_overpotential(j, j0, k.alpha_forward, k.alpha_backward, t);
-}
-
 struct Losses {
     double activation_anode, activation_cathode, ohmic, concentration;
     double sum() const { return activation_anode + activation_cathode + ohmic + concentration; }
@@ -158,8 +140,8 @@ public:
           macmullin_(v.get("separator_macmullin_number")),
           electrode_resistance_(v.get("electrode_resistance")),
           bubbles_{v.get("bubble_void_coefficient"), v.get("bubble_void_exponent"), v.get("bubble_void_max")},
-          anode_(read_kinetics(v, "anode")),
-          cathode_(read_kinetics(v, "cathode")),
+          anode_(read_kinetics(v, "anode", kReferenceTemperature)),
+          cathode_(read_kinetics(v, "cathode", kReferenceTemperature)),
           tafel_(read_choice(v, "kinetics_model", 1) == 1),
           limiting_current_density_(v.get("limiting_current_density")),
           h2_{v.get("h2_permeability"), v.get("h2_permeability_activation_energy"), kReferenceTemperature},

@@ -21,6 +21,7 @@
 #include <string>
 #include <vector>
 
+#include "cells/cell_support.hpp"
 #include "cells/technologies.hpp"
 #include "electrochem/conduction.hpp"
 #include "electrochem/kinetics.hpp"
@@ -77,25 +78,6 @@ const std::vector<ParameterInfo> kSolidOxideParameters = {
      "zero: dense zirconia electrolyte (typical assumption)"},
 };
 
-uint32_t read_switch(const ParameterValues& v, const char* key) {
-    const double x = v.get(key);
-    if (x != 0.0 && x != 1.0)
-        throw Error(ErrorKind::invalid_argument, fmt::format("{} is {:g}; it must be 0 or 1", key, x));
-    return static_cast<uint32_t>(x);
-}
-
-ElectrodeKinetics read_kinetics(const ParameterValues& v, const char* electrode) {
-    const std::string e(electrode);
-    return {v.get(e + "_exchange_current_density"), v.get(e + "_activation_energy"), kReferenceTemperature,
-            v.get(e + "_transfer_coefficient_forward"), v.get(e + "_transfer_coefficient_backward")};
-}
-
-double activation_overpotential(const ElectrodeKinetics& k, bool tafel, double j, double t) {
-    const double j0 = exchange_current_density(k, t);
-    return tafel ? tafel_overpotential(j, j0, k.alpha_forward, t)
-                 : butler_volmer_overpotential(j, j0, k.alpha_forward, k.alpha_backward, t);
-}
-
 class SolidOxideCell final : public Cell {
 public:
     explicit SolidOxideCell(const ParameterValues& v)
@@ -104,9 +86,9 @@ public:
           electrolyte_asr_(v.get("electrolyte_asr")),
           electrolyte_activation_energy_(v.get("electrolyte_activation_energy")),
           contact_resistance_(v.get("contact_resistance")),
-          anode_(read_kinetics(v, "anode")),
-          cathode_(read_kinetics(v, "cathode")),
-          tafel_(read_switch(v, "kinetics_model") == 1),
+          anode_(read_kinetics(v, "anode", kReferenceTemperature)),
+          cathode_(read_kinetics(v, "cathode", kReferenceTemperature)),
+          tafel_(read_choice(v, "kinetics_model", 1) == 1),
           diffusivity_(v.get("cathode_effective_diffusivity")),
           support_thickness_(v.get("cathode_support_thickness")),
           leakage_(v.get("electronic_leakage_fraction")) {
