@@ -5,6 +5,10 @@
 
 #include <cmath>
 
+#include <initializer_list>
+#include <utility>
+
+#include "cells/cell.hpp"
 #include "thermo/error.hpp"
 
 namespace ely::test {
@@ -21,6 +25,32 @@ void expect_error(F&& f, ErrorKind kind, const char* fragment) {
     } catch (const Error& e) {
         EXPECT_EQ(e.kind(), kind) << e.what();
         EXPECT_THAT(e.what(), ::testing::HasSubstr(fragment));
+    }
+}
+
+/// Property test of a liquid-electrolyte cell: at each pressure pair and temperature the
+/// voltage rises with current density; at each current density in `warm_js` it falls as the
+/// temperature rises (faster kinetics, better conduction, lower E°).
+template <class Pressures, class Temperatures, class CurrentDensities>
+void expect_voltage_monotone(const Cell& cell, const Pressures& pressures, const Temperatures& temperatures,
+                             const CurrentDensities& current_densities, std::initializer_list<double> warm_js) {
+    for (const auto& [pa, pc] : pressures) {
+        for (double t : temperatures) {
+            double previous = 0.0;
+            for (double j : current_densities) {
+                const double v = cell.evaluate({j, t, pa, pc}).voltage;
+                EXPECT_GT(v, previous) << "j " << j << " T " << t;
+                previous = v;
+            }
+        }
+        for (double j : warm_js) {
+            double previous = 1e9;
+            for (double t : temperatures) {
+                const double v = cell.evaluate({j, t, pa, pc}).voltage;
+                EXPECT_LT(v, previous) << "j " << j << " T " << t;
+                previous = v;
+            }
+        }
     }
 }
 

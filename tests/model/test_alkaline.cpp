@@ -134,24 +134,8 @@ TEST(AlkalineCell, VoltagePartsSumExactlyAndElementsBalanceInEveryOption) {
 
 TEST(AlkalineCell, VoltageRisesWithCurrentDensityAndFallsWithTemperature) {
     for (const auto& cell : all_variants())
-        for (const auto& [pa, pc] : kPressures) {
-            for (double t : kTemperatures) {
-                double previous = 0.0;
-                for (double j : kCurrentDensities) {
-                    const double v = cell->evaluate({j, t, pa, pc}).voltage;
-                    EXPECT_GT(v, previous);
-                    previous = v;
-                }
-            }
-            for (double j : {2000.0, 4000.0, 6000.0, 1e4, 1.5e4}) {
-                double previous = 1e9;
-                for (double t : kTemperatures) {
-                    const double v = cell->evaluate({j, t, pa, pc}).voltage;
-                    EXPECT_LT(v, previous) << "j " << j << " T " << t;
-                    previous = v;
-                }
-            }
-        }
+        ely::test::expect_voltage_monotone(*cell, kPressures, kTemperatures, kCurrentDensities,
+                                           {2000.0, 4000.0, 6000.0, 1e4, 1.5e4});
 }
 
 TEST(AlkalineCell, HydrogenInOxygenAtLowLoad) {
