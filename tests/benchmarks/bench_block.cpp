@@ -82,6 +82,21 @@ static void power_spec_solve(benchmark::State& state) {
 }
 BENCHMARK(power_spec_solve);
 
+static void power_spec_solve_cold(benchmark::State& state) {
+    Block blk;
+    ely_block_set_spec(blk.b, "power");
+    const int32_t ip = blk.idx("in.power");
+    // Setpoints that jump across the range, so the ±2 % warm-start bracket never holds.
+    const double setpoints[] = {25e3, 240e3, 60e3, 180e3, 35e3, 280e3, 110e3};
+    size_t k = 0;
+    for (auto _ : state) {
+        ely_block_set(blk.b, ip, setpoints[k]);
+        benchmark::DoNotOptimize(ely_block_solve(blk.b));
+        k = (k + 1) % 7;
+    }
+}
+BENCHMARK(power_spec_solve_cold);
+
 static void config_parse(benchmark::State& state) {
     for (auto _ : state) benchmark::DoNotOptimize(ely::parse_config(kPem));
 }
