@@ -918,7 +918,17 @@ PlantDesign parse_config(std::string_view json_text) {
         if (deferred.reactions != nullptr)
             fail("$.reactions", fmt::format("only the custom technology takes reactions; technology is '{}'",
                                             technology_name(d.technology)));
-        const ParameterValues values = parse_cell_parameters(cell_parameters(d.technology), deferred.cell, "$.cell");
+        ParameterValues values = parse_cell_parameters(cell_parameters(d.technology), deferred.cell, "$.cell");
+        // The shunt-current network of an alkaline stack needs the stack's geometry: taken from
+        // `stack` unless the cell object gives it (one source of truth for the plant).
+        if (d.technology == Technology::alkaline) {
+            try {
+                if (!has(deferred.cell, "shunt_cells")) values.set("shunt_cells", d.stack.cells);
+                if (!has(deferred.cell, "shunt_cell_area")) values.set("shunt_cell_area", d.stack.active_area);
+            } catch (const Error& e) {
+                fail("$.stack", std::string("as the shunt-network geometry: ") + e.what());
+            }
+        }
         try {
             d.cell = make_cell(d.technology, values);
         } catch (const Error& e) {

@@ -57,12 +57,16 @@ double rel_err(double a, double b, double scale) { return std::fabs(a - b) / sca
 
 }  // namespace
 
-class UnitBalances : public ::testing::TestWithParam<const char*> {};
+// (technology, extra top-level JSON): the defaults, and the options that move gas between
+// the streams (Faraday-efficiency models, shunt currents, recombination, drag not returned).
+using BalanceCase = std::pair<const char*, const char*>;
+class UnitBalances : public ::testing::TestWithParam<BalanceCase> {};
 
 TEST_P(UnitBalances, ElementAndEnergyBalancesCloseOverRandomPoints) {
-    const std::string tech = GetParam();
-    Probe p(minimal(tech.c_str(), R"(,"plant":{"thermal":{"heat_loss_coefficient":5}})"));
+    const std::string tech = GetParam().first;
+    Probe p(minimal(tech.c_str(), std::string(R"(,"plant":{"thermal":{"heat_loss_coefficient":5}})") + GetParam().second));
     const auto& env = p.block.design().cell->envelope();
+    const double drag_coefficient = tech == "pem" ? 2.5 : 0.0;  // PEM default electro-osmotic drag
     std::mt19937_64 rng(20261201);
     std::uniform_real_distribution<double> u(0.0, 1.0);
     const double p_lo = std::max(env.pressure_min, 1.1e5), p_hi = std::min(env.pressure_max, 30e5);
@@ -92,11 +96,13 @@ TEST_P(UnitBalances, ElementAndEnergyBalancesCloseOverRandomPoints) {
         const double water_in = p.get("feed.water") / molar_mass::H2O;
         const double salt_in = tech == "brine" ? p.get("feed.salt") / molar_mass::NaCl : 0.0;
         const double naoh = tech == "brine" ? p.get("product.caustic") / molar_mass::NaOH : 0.0;
-        const double caustic_water =
+        double liquid_out =  // liquid water leaving: caustic solution water, drained drag water
             tech == "brine" ? (p.get("product.caustic_solution") - p.get("product.caustic")) / molar_mass::H2O : 0.0;
+        if (!p.block.design().drag_water_returned)  // PEM drag water leaves as liquid: n_d·j/F per m²
+            liquid_out += drag_coefficient * p.get("cell.current_density") / kFaraday * (20 * 3 * 0.05);
         const double h_in = 2 * water_in, o_in = water_in;
-        const double h_out = 2 * (c.h2 + a.h2 + c.h2o + a.h2o + caustic_water) + naoh;
-        const double o_out = 2 * (c.o2 + a.o2) + c.h2o + a.h2o + caustic_water + naoh;
+        const double h_out = 2 * (c.h2 + a.h2 + c.h2o + a.h2o + liquid_out) + naoh;
+        const double o_out = 2 * (c.o2 + a.o2) + c.h2o + a.h2o + liquid_out + naoh;
         const double scale = h_in;
         ASSERT_LT(rel_err(h_in, h_out, scale), 1e-12) << tech << " H, point " << k;
         ASSERT_LT(rel_err(o_in, o_out, scale), 1e-12) << tech << " O, point " << k;
@@ -115,9 +121,8 @@ TEST_P(UnitBalances, ElementAndEnergyBalancesCloseOverRandomPoints) {
                         (c.h2o + a.h2o) * ideal_gas(Species::water_vapour, t).enthalpy;
         if (c.o2 + a.o2 > 0) prod_h += (c.o2 + a.o2) * ideal_gas(Species::oxygen, t).enthalpy;
         if (a.cl2 > 0) prod_h += a.cl2 * ideal_gas(Species::chlorine, t).enthalpy;
-        if (tech == "brine")
-            prod_h += caustic_water * liquid_water(t, std::max(pc, water_saturation_pressure(t))).enthalpy +
-                      naoh * aqueous_solute(Solute::sodium_hydroxide, t).enthalpy;
+        if (liquid_out > 0) prod_h += liquid_out * liquid_water(t, std::max(pc, water_saturation_pressure(t))).enthalpy;
+        if (tech == "brine") prod_h += naoh * aqueous_solute(Solute::sodium_hydroxide, t).enthalpy;
         const double power = p.get("stack.power");
         const double lhs = power + feed_h, rhs = prod_h + p.get("heat.duty") + p.get("heat.loss");
         ASSERT_LT(std::fabs(lhs - rhs), 1e-9 * power) << tech << " energy, point " << k;
@@ -137,7 +142,26 @@ TEST_P(UnitBalances, ElementAndEnergyBalancesCloseOverRandomPoints) {
     EXPECT_EQ(solved, 1000);
 }
 
-INSTANTIATE_TEST_SUITE_P(AllTechnologies, UnitBalances, ::testing::Values("pem", "alkaline", "solid_oxide", "brine"));
+INSTANTIATE_TEST_SUITE_P(
+    AllTechnologies, UnitBalances,
+    ::testing::Values(BalanceCase{"pem", ""}, BalanceCase{"alkaline", ""}, BalanceCase{"solid_oxide", ""},
+                      BalanceCase{"brine", ""},
+                      BalanceCase{"pem", R"(,"cell":{"o2_recombination_fraction":0.3})"},
+                      BalanceCase{"alkaline", R"(,"cell":{"faraday_model":1})"},
+                      BalanceCase{"alkaline", R"(,"cell":{"shunt_model":1,"shunt_current_fraction":0.02})"},
+                      BalanceCase{"alkaline", R"(,"cell":{"shunt_model":2})"},
+                      BalanceCase{"brine", R"(,"cell":{"voltage_model":1})"}));
+
+TEST(UnitBalances, DragWaterNotReturnedIsMakeUpWater) {
+    // PEM: water dragged to the cathode and drained adds n_d·j/F per m² to the make-up water.
+    Probe kept(minimal("pem")), drained(minimal("pem", R"(,"plant":{"drag_water_returned":false})"));
+    kept.block.solve();
+    drained.block.solve();
+    const double j = kept.get("cell.current_density");
+    const double extra = 2.5 * j / kFaraday * (20 * 3 * 0.05) * molar_mass::H2O;  // default n_d = 2.5
+    EXPECT_NEAR(drained.get("feed.water") - kept.get("feed.water"), extra, 1e-12 * extra);
+    EXPECT_LT(drained.get("heat.duty"), kept.get("heat.duty"));  // liquid leaves hot, fed cold
+}
 
 class UnitSpecs : public ::testing::TestWithParam<const char*> {};
 

@@ -113,7 +113,7 @@ const std::vector<ParameterInfo> kAlkalineParameters = {
      "model choice"},
     {"shunt_current_fraction", "1", 0.0, 0.0, 0.5, "fraction of the current bypassing the electrodes (shunt_model 1)",
      "off by default"},
-    {"shunt_cells", "1", 100.0, 1.0, 1000.0, "cells of the stack for the shunt network (shunt_model 2)",
+    {"shunt_cells", "1", 100.0, 1.0, 10000.0, "cells of the stack for the shunt network (shunt_model 2; default: stack.cells)",
      "typical value, from memory"},
     {"shunt_channel_length_per_area", "1/m", 2500.0, 1.0, 1e8,
      "length over cross-section of one cell's electrolyte ports, all in parallel: R_channel = value/sigma_KOH",
@@ -121,7 +121,7 @@ const std::vector<ParameterInfo> kAlkalineParameters = {
     {"shunt_manifold_length_per_area", "1/m", 1.25, 0.0, 1e6,
      "length over cross-section of the manifold segment between neighbouring cells, all manifolds in parallel",
      "typical value, from memory: four manifolds of 1000 mm2 section, 5 mm cell pitch"},
-    {"shunt_cell_area", "m2", 2.5, 1e-4, 100.0, "active area of one cell, for the shunt network",
+    {"shunt_cell_area", "m2", 2.5, 1e-4, 100.0, "active area of one cell, for the shunt network (default: stack.active_area)",
      "typical value, from memory"},
 };
 
