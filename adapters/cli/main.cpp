@@ -167,11 +167,13 @@ void print_summary(const ely_block* b, int32_t status) {
     line("caustic current efficiency", 100 * get(b, "cell.caustic_efficiency"), "%", 2);
     line("specific energy, DC stack", get(b, "perf.specific_energy") / kwh, "kWh/kg", 2);
     line("specific energy, AC plant", get(b, "perf.specific_energy_plant") / kwh, "kWh/kg", 2);
+    line("DC energy per tonne of chlorine", get(b, "perf.specific_energy_chlorine") / kwh * 1000, "kWh/t", 0);
     line("efficiency (HHV, DC)", 100 * get(b, "perf.efficiency_hhv"), "%", 2);
     line("heat duty (+ remove, - supply)", get(b, "heat.duty") / 1e3, "kW", 2);
     fmt::print("Gas purity\n");
     line("H2 in anode gas (dry)", 100 * get(b, "gas.h2_in_o2"), "mol %", 4);
     line("O2 in cathode gas (dry)", 100 * get(b, "gas.o2_in_h2"), "mol %", 4);
+    line("O2 in chlorine (dry)", 100 * get(b, "gas.o2_in_cl2"), "mol %", 3);
     fmt::print("Alarms\n");
     const char* names[] = {"alarm.h2_in_o2_warning", "alarm.h2_in_o2_trip", "alarm.temperature_high",
                            "alarm.current_density_high", "alarm.load_low", "alarm.extrapolated"};

@@ -413,6 +413,7 @@ void Block::fill_outputs(const PointResult& r) {
     v_[perf_efficiency_hhv] = r.stack_power > 0 ? h2 * hhv_per_kg() / r.stack_power : 0.0;
     v_[perf_efficiency_lhv] = r.stack_power > 0 ? h2 * lhv_per_kg() / r.stack_power : 0.0;
     v_[perf_water_per_hydrogen] = makes_h2 ? v_[feed_water] / h2 : kNaN;
+    v_[perf_specific_energy_chlorine] = v_[product_chlorine] > 0 ? r.stack_power / v_[product_chlorine] : kNaN;
 
     const double j_rated = v_[par_current_density_max];
     v_[perf_load_fraction] = c.current_density / j_rated;

@@ -79,6 +79,7 @@ const VariableInfo kTable[kVarCount] = {
     {"perf.specific_energy_plant", "J/kg", O, H2, "AC plant energy per kg of hydrogen product"},
     {"perf.efficiency_hhv", "1", O, H2, "hydrogen product HHV at 25 degC over DC stack power"},
     {"perf.efficiency_lhv", "1", O, H2, "hydrogen product LHV at 25 degC over DC stack power"},
+    {"perf.specific_energy_chlorine", "J/kg", O, B, "DC stack energy per kg of chlorine product"},
     {"perf.load_fraction", "1", O, A, "current density over the maximum current density"},
     {"perf.water_per_hydrogen", "1", O, H2, "make-up water per hydrogen product, kg/kg"},
 

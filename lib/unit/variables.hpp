@@ -65,7 +65,7 @@ enum Var : int {
     heat_duty, heat_loss,
     // performance
     perf_specific_energy, perf_specific_energy_plant, perf_efficiency_hhv, perf_efficiency_lhv,
-    perf_load_fraction, perf_water_per_hydrogen,
+    perf_specific_energy_chlorine, perf_load_fraction, perf_water_per_hydrogen,
     // alarms (0 or 1)
     alarm_h2_in_o2_warning, alarm_h2_in_o2_trip, alarm_temperature_high, alarm_current_density_high,
     alarm_load_low, alarm_extrapolated, alarm_any,
