@@ -5,39 +5,11 @@
 #include <cstddef>
 #include <fmt/format.h>
 
+#include "thermo/check.hpp"
 #include "thermo/error.hpp"
 
 namespace ely::if97 {
 namespace {
-
-// ---------------------------------------------------------------------------------------
-// Argument checks. Given values print in shortest round-trip form, limits that are
-// computed (p_sat, p_B23) with nine significant digits.
-
-void require_finite(const char* where, const char* quantity, double value, const char* unit) {
-    if (!std::isfinite(value))
-        throw Error(ErrorKind::invalid_argument,
-                    fmt::format("{}: {} {} {} is not a finite number", where, quantity, value, unit));
-}
-
-void require_positive(const char* where, const char* quantity, double value, const char* unit) {
-    require_finite(where, quantity, value, unit);
-    if (!(value > 0.0))
-        throw Error(ErrorKind::invalid_argument,
-                    fmt::format("{}: {} {} {} is not above the limit 0 {}", where, quantity, value, unit, unit));
-}
-
-void require_at_least(const char* where, const char* quantity, double value, double lo, const char* unit) {
-    if (value < lo)
-        throw Error(ErrorKind::out_of_range,
-                    fmt::format("{}: {} {} {} is below the limit {} {}", where, quantity, value, unit, lo, unit));
-}
-
-void require_at_most(const char* where, const char* quantity, double value, double hi, const char* unit) {
-    if (value > hi)
-        throw Error(ErrorKind::out_of_range,
-                    fmt::format("{}: {} {} {} is above the limit {} {}", where, quantity, value, unit, hi, unit));
-}
 
 constexpr double kR = kSpecificGasConstant;
 constexpr double kRoundOff = 1e-9;  // relative tolerance on the p_sat and p_B23 limits
@@ -244,17 +216,17 @@ double boundary23_pressure_unchecked(double T) {
 
 double saturation_pressure(double temperature) {
     constexpr const char* where = "IF97 region 4";
-    require_positive(where, "temperature", temperature, "K");
-    require_at_least(where, "temperature", temperature, kTmin, "K");
-    require_at_most(where, "temperature", temperature, kCriticalTemperature, "K");
+    require_positive(temperature, {where, "temperature"}, "K");
+    require_at_least(temperature, kTmin, {where, "temperature"}, "K");
+    require_at_most(temperature, kCriticalTemperature, {where, "temperature"}, "K");
     return saturation_pressure_unchecked(temperature);
 }
 
 double saturation_temperature(double pressure) {
     constexpr const char* where = "IF97 region 4";
-    require_positive(where, "pressure", pressure, "Pa");
-    require_at_least(where, "pressure", pressure, kPsatMin, "Pa");
-    require_at_most(where, "pressure", pressure, kCriticalPressure, "Pa");
+    require_positive(pressure, {where, "pressure"}, "Pa");
+    require_at_least(pressure, kPsatMin, {where, "pressure"}, "Pa");
+    require_at_most(pressure, kCriticalPressure, {where, "pressure"}, "Pa");
     const double* n = kN4;
     const double beta = std::sqrt(std::sqrt(pressure / 1e6));  // eq. 29a
     const double E = (beta + n[3]) * beta + n[6];
@@ -267,19 +239,19 @@ double saturation_temperature(double pressure) {
 
 double boundary23_pressure(double temperature) {
     constexpr const char* where = "IF97 B23 boundary";
-    require_positive(where, "temperature", temperature, "K");
-    require_at_least(where, "temperature", temperature, kT13, "K");
-    require_at_most(where, "temperature", temperature, kT2B23, "K");
+    require_positive(temperature, {where, "temperature"}, "K");
+    require_at_least(temperature, kT13, {where, "temperature"}, "K");
+    require_at_most(temperature, kT2B23, {where, "temperature"}, "K");
     return boundary23_pressure_unchecked(temperature);
 }
 
 State region1(double temperature, double pressure) {
     constexpr const char* where = "IF97 region 1";
-    require_positive(where, "temperature", temperature, "K");
-    require_positive(where, "pressure", pressure, "Pa");
-    require_at_least(where, "temperature", temperature, kTmin, "K");
-    require_at_most(where, "temperature", temperature, kT13, "K");
-    require_at_most(where, "pressure", pressure, kPmax, "Pa");
+    require_positive(temperature, {where, "temperature"}, "K");
+    require_positive(pressure, {where, "pressure"}, "Pa");
+    require_at_least(temperature, kTmin, {where, "temperature"}, "K");
+    require_at_most(temperature, kT13, {where, "temperature"}, "K");
+    require_at_most(pressure, kPmax, {where, "pressure"}, "Pa");
     const double p_sat = saturation_pressure_unchecked(temperature);
     if (pressure < p_sat * (1.0 - kRoundOff))
         throw Error(ErrorKind::out_of_range,
@@ -302,10 +274,10 @@ State region1(double temperature, double pressure) {
 
 State region2(double temperature, double pressure) {
     constexpr const char* where = "IF97 region 2";
-    require_positive(where, "temperature", temperature, "K");
-    require_positive(where, "pressure", pressure, "Pa");
-    require_at_least(where, "temperature", temperature, kTmin, "K");
-    require_at_most(where, "temperature", temperature, kTmax2, "K");
+    require_positive(temperature, {where, "temperature"}, "K");
+    require_positive(pressure, {where, "pressure"}, "Pa");
+    require_at_least(temperature, kTmin, {where, "temperature"}, "K");
+    require_at_most(temperature, kTmax2, {where, "temperature"}, "K");
     if (temperature <= kT13) {
         const double p_sat = saturation_pressure_unchecked(temperature);
         if (pressure > p_sat * (1.0 + kRoundOff))
@@ -319,17 +291,17 @@ State region2(double temperature, double pressure) {
                         fmt::format("{}: pressure {} Pa is above the limit {:.9g} Pa, the B23 boundary pressure at {} K",
                                     where, pressure, p_b23, temperature));
     } else {
-        require_at_most(where, "pressure", pressure, kPmax, "Pa");
+        require_at_most(pressure, kPmax, {where, "pressure"}, "Pa");
     }
     return region2_state(temperature, pressure, true);
 }
 
 State region2_ideal_gas(double temperature, double pressure) {
     constexpr const char* where = "IF97 region 2 ideal gas";
-    require_positive(where, "temperature", temperature, "K");
-    require_positive(where, "pressure", pressure, "Pa");
-    require_at_least(where, "temperature", temperature, kTmin, "K");
-    require_at_most(where, "temperature", temperature, kTmax2, "K");
+    require_positive(temperature, {where, "temperature"}, "K");
+    require_positive(pressure, {where, "pressure"}, "Pa");
+    require_at_least(temperature, kTmin, {where, "temperature"}, "K");
+    require_at_most(temperature, kTmax2, {where, "temperature"}, "K");
     return region2_state(temperature, pressure, false);
 }
 

@@ -150,7 +150,10 @@ INSTANTIATE_TEST_SUITE_P(
                       BalanceCase{"alkaline", R"(,"cell":{"faraday_model":1})"},
                       BalanceCase{"alkaline", R"(,"cell":{"shunt_model":1,"shunt_current_fraction":0.02})"},
                       BalanceCase{"alkaline", R"(,"cell":{"shunt_model":2})"},
-                      BalanceCase{"brine", R"(,"cell":{"voltage_model":1})"}));
+                      BalanceCase{"brine", R"(,"cell":{"voltage_model":1})"}),
+    [](const ::testing::TestParamInfo<BalanceCase>& info) {
+        return std::string(info.param.first) + (*info.param.second ? "_option_" + std::to_string(info.index) : "");
+    });
 
 TEST(UnitBalances, DragWaterNotReturnedIsMakeUpWater) {
     // PEM: water dragged to the cathode and drained adds n_d·j/F per m² to the make-up water.
