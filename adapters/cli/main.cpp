@@ -130,7 +130,7 @@ std::string report(const ely_block* b) {
     return text;
 }
 
-void print_summary(const ely_block* b, int32_t status) {
+void print_summary(const ely_block* b, const std::string& warning) {
     const double kwh = 3.6e6;
     auto line = [](const char* label, double v, const char* unit, int decimals = 4) {
         if (std::isfinite(v)) fmt::print("  {:<34}{:>14.{}f} {}\n", label, v, decimals, unit);
@@ -181,7 +181,7 @@ void print_summary(const ely_block* b, int32_t status) {
     for (const char* n : names)
         if (get(b, n) > 0) { fmt::print("  RAISED  {}\n", n); any = true; }
     if (!any) fmt::print("  none\n");
-    if (status == ELY_WARNING) fmt::print("  ({})\n", ely_last_error());
+    if (!warning.empty()) fmt::print("  ({})\n", warning);
     fmt::print("\n{}", kCautions);
 }
 
@@ -190,6 +190,8 @@ int command_solve(const Options& o) {
     open_block(o, h);
     const int32_t status = ely_block_solve(h.p);
     check(status, "solve");
+    // The warning text belongs to the solve; later calls replace the last-error message.
+    const std::string warning = status == ELY_WARNING ? ely_last_error() : "";
     if (o.format == "json") {
         fmt::print("{}\n", report(h.p));
     } else if (o.format == "csv") {
@@ -205,11 +207,11 @@ int command_solve(const Options& o) {
             fmt::print("{},{:.10g},{}\n", info.name, v, info.unit);
         }
     } else if (o.format == "table") {
-        print_summary(h.p, status);
+        print_summary(h.p, warning);
     } else {
         fail_usage(fmt::format("--format must be table, json or csv, not '{}'", o.format));
     }
-    if (status == ELY_WARNING) fmt::print(stderr, "elyblock: warning: {}\n", ely_last_error());
+    if (!warning.empty()) fmt::print(stderr, "elyblock: warning: {}\n", warning);
     return 0;
 }
 
@@ -246,6 +248,7 @@ int command_sweep(const Options& o) {
     const int32_t s = ely_block_solve_batch(h.p, n, 1, &over, in.data(), static_cast<int32_t>(out_idx.size()),
                                             out_idx.data(), out.data(), status.data(), nullptr, nullptr);
     check(s, "sweep");
+    const std::string batch_message = s != ELY_OK ? ely_last_error() : "";
     std::FILE* f = stdout;
     if (!o.output.empty() && !(f = std::fopen(o.output.c_str(), "w")))
         throw ModelError{fmt::format("cannot write '{}'", o.output)};
@@ -262,7 +265,7 @@ int command_sweep(const Options& o) {
         fmt::print(f, "\n");
     }
     if (f != stdout) std::fclose(f);
-    if (s != ELY_OK) fmt::print(stderr, "elyblock: {}\n", ely_last_error());
+    if (!batch_message.empty()) fmt::print(stderr, "elyblock: {}\n", batch_message);
     return 0;
 }
 
