@@ -50,7 +50,8 @@ struct Block::PointResult {
     double stack_current = 0, stack_voltage = 0, stack_power = 0;
 };
 
-Block::Block(PlantDesign design) : design_(std::move(design)), spec_(design_.operating.spec) {
+Block::Block(PlantDesign design)
+    : design_(std::move(design)), spec_(design_.operating.spec), last_good_spec_(design_.operating.spec) {
     if (!design_.cell) throw Error(ErrorKind::internal, "block created without a cell model");
     const uint32_t bit = tech_bit(design_.technology);
     for (int i = 0; i < kVarCount; ++i) {
@@ -279,9 +280,11 @@ SolveOutcome Block::solve() {
         has_solution_ = true;
         outputs_current_ = true;
         last_good_ = v_;
+        last_good_spec_ = spec_;
     } catch (...) {
-        // Roll back to the last consistent state (inputs and outputs of the last good solve).
+        // Roll back to the last consistent state (spec, inputs and outputs of the last good solve).
         v_ = last_good_;
+        spec_ = last_good_spec_;
         outputs_current_ = has_solution_;
         throw;
     }

@@ -68,6 +68,7 @@ private:
     Spec spec_;
     std::vector<double> v_;          // values by Var (table variables, then extra ones)
     std::vector<double> last_good_;  // v_ at the last successful solve
+    Spec last_good_spec_;            // spec_ at the last successful solve
     bool has_solution_ = false;
     bool outputs_current_ = false;
     double rectifier_rated_power_ = 0;

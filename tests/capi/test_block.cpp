@@ -144,11 +144,14 @@ TEST(BlockApi, LifeCycleAndBadInputsKeepTheLastValidState) {
     EXPECT_EQ(h.get("in.temperature"), t0);
     EXPECT_EQ(h.get("cell.voltage"), v0);
 
-    // Infeasible power spec.
+    // Infeasible power spec: the spec rolls back with the inputs.
     ASSERT_EQ(ely_block_set_spec(h.b, "power"), ELY_OK);
     ASSERT_EQ(ely_block_set(h.b, h.idx("in.power"), 1e12), ELY_OK);
     EXPECT_EQ(ely_block_solve(h.b), ELY_ERR_INFEASIBLE);
     EXPECT_THAT(ely_last_error(), HasSubstr("maximum current density"));
+    EXPECT_EQ(h.get("cell.voltage"), v0);
+    EXPECT_EQ(ely_block_set(h.b, h.idx("in.power"), 1e5), ELY_ERR_WRONG_STATE);  // back on current_density
+    ASSERT_GE(ely_block_solve(h.b), 0);
     EXPECT_EQ(h.get("cell.voltage"), v0);
 }
 
