@@ -2,7 +2,7 @@
 // The electrolyzer block: inputs, steady-state solve, outputs. Life cycle:
 //   Block(design) → set inputs → solve() → get outputs → set … → solve() …
 // Outputs can be read only while they belong to the current inputs (after a successful
-// solve and before the next set). A failed solve rolls the inputs back to those of the last
+// solve and before the next set). A failed solve rolls the spec and inputs back to those of the last
 // successful solve, so the block always holds a consistent solved state (or none yet).
 #include <array>
 #include <cstdint>

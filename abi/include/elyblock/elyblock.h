@@ -81,7 +81,7 @@ ELY_API int32_t ely_water_electrolysis_voltages(double temperature_K, double pre
  * Life cycle: create (from JSON text or a file) → set inputs → solve → get outputs →
  * set … → solve … → destroy. Outputs are readable only while they belong to the current
  * inputs: after a successful solve and before the next set (else ELY_ERR_WRONG_STATE).
- * A failed solve rolls the inputs back to those of the last successful solve, so the
+ * A failed solve rolls the inputs and the spec back to those of the last successful solve, so the
  * block keeps its last valid state. Variables are addressed by a dense index 0..count-1
  * (look it up by name with ely_block_find); the set of variables depends on the
  * technology of the configuration. */
