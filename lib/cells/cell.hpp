@@ -79,6 +79,7 @@ struct CellResult {
     double caustic_efficiency = 1;
     double chlorine_efficiency = 1;
     double caustic_mass_fraction = 0;  // catholyte NaOH strength, kg/kg
+    double anolyte_nacl_molality = 0;  // depleted anolyte brine strength, mol/kg of water
 
     uint32_t warnings = 0;  // CellWarning bits
 

@@ -240,6 +240,9 @@ const std::vector<PlantField>& plant_fields() {
         flag<PlantDesign>("drag_water_returned", ELY_MEMBER(drag_water_returned),
                           "PEM: water dragged to the cathode is separated and returned to the feed (true) or "
                           "drained and made up (false)"),
+        quantity<PlantDesign>("brine_feed_nacl_mass_fraction", "1", 0.05, 0.27, ELY_MEMBER(brine_feed_nacl_mass_fraction),
+                              "brine cells: NaCl mass fraction of the resaturated brine fed to the anolyte; sets the "
+                              "brine circulation (must exceed the depleted anolyte strength)"),
     };
     return fields;
 }

@@ -377,6 +377,27 @@ void Block::fill_outputs(const PointResult& r) {
     v_[stream_anode_x_h2] = frac(r.anode[kH2], gas_a);
     v_[stream_anode_x_cl2] = frac(r.anode[kCl2], gas_a);
     v_[stream_anode_x_h2o] = frac(vap_a, gas_a);
+    if (design_.technology == Technology::brine) {
+        // Brine loop (internal: resaturated and returned). Anolyte balances with feed brine of
+        // molality m_in and depleted brine of m_out: salt m_in·W_in − m_out·W_out = NaCl consumed;
+        // water W_in − W_out = water carried to the catholyte with Na⁺ + vapour in the chlorine −
+        // water formed at the anode by the back-migrated hydroxide (2·H2 made − water consumed).
+        const double w_in = design_.brine_feed_nacl_mass_fraction;
+        const double m_in = w_in / ((1.0 - w_in) * molar_mass::NaCl), m_out = c.anolyte_nacl_molality;
+        if (!(m_in > m_out))
+            throw Error(ErrorKind::config,
+                        fmt::format("$.plant.brine_feed_nacl_mass_fraction: feed brine of {:.4g} mol/kg is not stronger "
+                                    "than the depleted anolyte of {:.4g} mol/kg",
+                                    m_in, m_out));
+        const double formed = 2.0 * r.cathode[kH2] - r.consumed[kH2O];
+        const double drag = c.water_drag * r.cells_total * design_.stack.active_area;
+        const double water_out_kg = (drag + vap_a - formed) * molar_mass::H2O;  // kg/s
+        const double feed_water_kg = (r.consumed[kNaCl] - m_out * water_out_kg) / (m_in - m_out);
+        const double depleted_water_kg = feed_water_kg - water_out_kg;
+        v_[stream_brine_feed_mass_flow] = feed_water_kg * (1.0 + m_in * molar_mass::NaCl);
+        v_[stream_depleted_brine_mass_flow] = depleted_water_kg * (1.0 + m_out * molar_mass::NaCl);
+        v_[stream_depleted_brine_nacl_mass_fraction] = m_out * molar_mass::NaCl / (1.0 + m_out * molar_mass::NaCl);
+    }
     v_[gas_h2_in_o2] = c.h2_in_o2;
     v_[gas_o2_in_h2] = c.o2_in_h2;
     v_[gas_o2_in_cl2] = c.o2_in_cl2;

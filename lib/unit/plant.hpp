@@ -86,6 +86,9 @@ struct PlantDesign {
     Thermal thermal;
     OperatingDefaults operating;
     bool drag_water_returned = true;  // PEM: water dragged to the cathode is separated and returned
+    /// Brine cells: NaCl mass fraction of the resaturated brine fed to the anolyte. Typical
+    /// resaturated brine ≈ 300–310 g/L, about 26 wt % (common practice, from memory).
+    double brine_feed_nacl_mass_fraction = 0.26;
     std::shared_ptr<const Cell> cell;  // the cell model (immutable after creation, shared by clones)
     std::shared_ptr<const CustomCellSpec> custom;  // the reaction table of a custom cell, else null
 };

@@ -67,6 +67,10 @@ const VariableInfo kTable[kVarCount] = {
     {"stream.anode.x_h2", "mol/mol", O, A, "hydrogen mole fraction of the wet anode gas"},
     {"stream.anode.x_cl2", "mol/mol", O, B, "chlorine mole fraction of the wet anode gas"},
     {"stream.anode.x_h2o", "mol/mol", O, A, "water vapour mole fraction of the wet anode gas"},
+    {"stream.brine_feed.mass_flow", "kg/s", O, B,
+     "resaturated brine fed to the anolyte (internal brine loop; the net feeds are feed.salt and feed.water)"},
+    {"stream.depleted_brine.mass_flow", "kg/s", O, B, "depleted brine leaving the anolyte (internal brine loop)"},
+    {"stream.depleted_brine.nacl_mass_fraction", "1", O, B, "NaCl mass fraction of the depleted brine"},
 
     {"gas.h2_in_o2", "mol/mol", O, A, "hydrogen in the dry anode gas"},
     {"gas.o2_in_h2", "mol/mol", O, A, "oxygen in the dry cathode gas"},

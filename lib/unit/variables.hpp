@@ -59,6 +59,7 @@ enum Var : int {
     stream_cathode_x_o2, stream_cathode_x_h2o,
     stream_anode_mass_flow, stream_anode_temperature, stream_anode_pressure, stream_anode_x_o2,
     stream_anode_x_h2, stream_anode_x_cl2, stream_anode_x_h2o,
+    stream_brine_feed_mass_flow, stream_depleted_brine_mass_flow, stream_depleted_brine_nacl_mass_fraction,
     // purity
     gas_h2_in_o2, gas_o2_in_h2, gas_o2_in_cl2,
     // heat

@@ -109,6 +109,12 @@ TEST_P(UnitBalances, ElementAndEnergyBalancesCloseOverRandomPoints) {
         if (tech == "brine") {
             ASSERT_LT(rel_err(salt_in, naoh, salt_in), 1e-12) << "Na";
             ASSERT_LT(rel_err(salt_in, 2 * a.cl2, salt_in), 1e-12) << "Cl";
+            // Brine loop: salt fed with the resaturated brine less salt leaving with the depleted
+            // brine is the salt consumed.
+            const double fed = p.get("stream.brine_feed.mass_flow") * 0.26;  // default feed strength
+            const double left = p.get("stream.depleted_brine.mass_flow") * p.get("stream.depleted_brine.nacl_mass_fraction");
+            ASSERT_LT(rel_err(fed - left, p.get("feed.salt"), p.get("feed.salt")), 1e-12) << "brine loop";
+            ASSERT_LT(p.get("stream.depleted_brine.nacl_mass_fraction"), 0.26);
         }
 
         // Energy: P_DC + H_feed = H_products + Q_duty + Q_loss, recomputed from the outputs

@@ -133,6 +133,7 @@ CellResult BrineCell::evaluate(const OperatingPoint& p) const {
     r.caustic_efficiency = ce;
     r.chlorine_efficiency = ce;
     r.caustic_mass_fraction = s_.naoh_mass_fraction;
+    r.anolyte_nacl_molality = s_.nacl_molality;
     r.o2_in_cl2 = brine_o2_in_cl2(r);
     return r;
 }
