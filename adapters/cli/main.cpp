@@ -154,6 +154,7 @@ void print_summary(const ely_block* b, const std::string& warning) {
     line("stack voltage", get(b, "stack.voltage"), "V", 1);
     line("DC power", get(b, "stack.power") / 1e6, "MW", 4);
     line("AC power (rectifier, auxiliaries)", get(b, "plant.power") / 1e6, "MW", 4);
+    line("rectifier efficiency", 100 * get(b, "plant.rectifier_efficiency"), "%", 2);
     fmt::print("Products and feeds\n");
     line("hydrogen", get(b, "product.hydrogen") * 3600, "kg/h", 3);
     line("oxygen", get(b, "product.oxygen") * 3600, "kg/h", 3);

@@ -326,6 +326,7 @@ void Block::fill_outputs(const PointResult& r) {
     const double x = rectifier_rated_power_ > 0 ? r.stack_power / rectifier_rated_power_ : 0.0;
     const auto& rect = design_.rectifier;
     v_[plant_rectifier_loss] = rectifier_rated_power_ * (rect.loss_no_load + rect.loss_linear * x + rect.loss_quadratic * x * x);
+    v_[plant_rectifier_efficiency] = r.stack_power / (r.stack_power + v_[plant_rectifier_loss]);
     v_[plant_auxiliary_power] = design_.auxiliaries.fixed + design_.auxiliaries.proportional * r.stack_power;
     v_[plant_power] = r.stack_power + v_[plant_rectifier_loss] + v_[plant_auxiliary_power];
 

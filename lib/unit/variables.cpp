@@ -44,6 +44,7 @@ const VariableInfo kTable[kVarCount] = {
     {"stack.power", "W", O, A, "DC power of all stacks"},
     {"plant.power", "W", O, A, "AC power drawn by the plant: stacks, rectifier losses, auxiliaries"},
     {"plant.rectifier_loss", "W", O, A, "rectifier losses"},
+    {"plant.rectifier_efficiency", "1", O, A, "DC power over the AC power the rectifier draws"},
     {"plant.auxiliary_power", "W", O, A, "auxiliary (balance-of-plant) power"},
 
     {"product.hydrogen", "kg/s", O, H2, "hydrogen in the cathode product, dry basis"},

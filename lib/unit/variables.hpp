@@ -50,7 +50,7 @@ enum Var : int {
     cell_faraday_efficiency, cell_caustic_efficiency, cell_chlorine_efficiency,
     // stack and plant
     stack_current, stack_voltage, stack_power, plant_power,
-    plant_rectifier_loss, plant_auxiliary_power,
+    plant_rectifier_loss, plant_rectifier_efficiency, plant_auxiliary_power,
     // products and feeds (plant totals)
     product_hydrogen, product_oxygen, product_chlorine, product_caustic, product_caustic_solution,
     feed_water, feed_salt,

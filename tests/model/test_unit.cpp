@@ -248,6 +248,24 @@ TEST_P(UnitSpecs, HeatDutyFollowsTheThermoneutralVoltage) {
 
 INSTANTIATE_TEST_SUITE_P(AllTechnologies, UnitSpecs, ::testing::Values("pem", "alkaline", "solid_oxide", "brine"));
 
+TEST(UnitPlant, RectifierAndAuxiliariesFollowTheirLossModel) {
+    // P_loss = P_rated·(a0 + a1·x + a2·x²), x = P_DC/P_rated; auxiliaries fixed + k·P_DC; the
+    // AC power is their sum with the DC power (defaults: 0.5 %, 1 %, 1.5 %; 3 %).
+    Probe p(minimal("pem", R"(,"plant":{"rectifier":{"rated_power":"200 kW"},"auxiliaries":{"fixed":"5 kW"}})"));
+    for (double j : {2000.0, 10000.0, 20000.0}) {
+        p.set("in.current_density", j);
+        p.block.solve();
+        const double dc = p.get("stack.power"), x = dc / 200e3;
+        const double loss = 200e3 * (0.005 + 0.010 * x + 0.015 * x * x);
+        EXPECT_NEAR(p.get("plant.rectifier_loss"), loss, 1e-9 * loss);
+        EXPECT_NEAR(p.get("plant.auxiliary_power"), 5e3 + 0.03 * dc, 1e-9 * dc);
+        EXPECT_NEAR(p.get("plant.power"), dc + loss + 5e3 + 0.03 * dc, 1e-9 * dc);
+        EXPECT_NEAR(p.get("plant.rectifier_efficiency"), dc / (dc + loss), 1e-12);
+        EXPECT_NEAR(p.get("perf.specific_energy_plant"), p.get("plant.power") / p.get("product.hydrogen"),
+                    1e-9 * p.get("perf.specific_energy_plant"));
+    }
+}
+
 TEST(UnitAlarms, LowLoadRaisesHydrogenInOxygenWarning) {
     Probe p(minimal("alkaline"));
     p.block.solve();
