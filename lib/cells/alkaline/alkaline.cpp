@@ -96,7 +96,9 @@ const std::vector<ParameterInfo> kAlkalineParameters = {
      "effective supersaturation of dissolved gas at the gas-evolving electrodes, added to each gas's partial pressure "
      "in the crossover: N = P (p_gas + p_ss)/delta",
      "chosen with h2_permeability (see there); supersaturation of dissolved product gas near gas-evolving electrodes "
-     "dominates the crossover at low pressure (Haug et al., Int. J. Hydrogen Energy 42 (2017) 9406; from memory)"},
+     "dominates the crossover at low pressure (Haug et al., Int. J. Hydrogen Energy 42 (2017) 9406, from memory; "
+     "de Groot, Kraakman & Barros, Int. J. Hydrogen Energy 47 (2022) 34773: crossover mainly diffusive H2 driven by "
+     "supersaturation at the diaphragm)"},
     {"o2_recombination_fraction", "1", 0.0, 0.0, 1.0,
      "fraction of the oxygen permeating to the cathode that recombines with hydrogen (forming water)",
      "typical assumption: nickel cathodes recombine little; the oxygen stays in the hydrogen (from memory)"},
