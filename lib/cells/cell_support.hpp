@@ -3,6 +3,7 @@
 // parameter values, and the activation loss of one electrode.
 #include <cstdint>
 
+#include "cells/cell.hpp"
 #include "cells/parameters.hpp"
 #include "electrochem/kinetics.hpp"
 
@@ -15,8 +16,31 @@ uint32_t read_choice(const ParameterValues& values, const char* key, int max);
 /// "<electrode>_activation_energy", "<electrode>_transfer_coefficient_forward|backward".
 ElectrodeKinetics read_kinetics(const ParameterValues& values, const char* electrode, double reference_temperature);
 
+/// Largest current density a cell accepts: its envelope maximum, or just below the limiting
+/// current density where the concentration loss diverges, whichever is smaller.
+double current_density_cap(double envelope_maximum, double limiting_current_density);
+
 /// Activation overpotential at j: Butler–Volmer solved exactly, or Tafel when `tafel`.
 double activation_overpotential(const ElectrodeKinetics& kinetics, bool tafel, double current_density,
                                 double temperature);
+
+/// Gas crossing the separator of a water cell, mol/(m² s): hydrogen to the anode side, oxygen
+/// to the cathode side.
+struct CrossoverFluxes {
+    double hydrogen;
+    double oxygen;
+};
+
+/// Smallest electrode current density whose gas production still exceeds the crossover, A/m²,
+/// when a fraction `recombination` of the oxygen reaching the cathode burns hydrogen there.
+double crossover_minimum_current_density(const CrossoverFluxes& crossover, double recombination);
+
+/// Gas bookkeeping of a water cell (PEM, alkaline): from the electrode current density (the
+/// current that makes gas), the terminal current density and the crossover, fills the product
+/// fluxes, the water consumed (one H2O per H2 leaving either side; recombined water stays in
+/// the loop), the Faraday efficiency on the terminal current and both purities. Throws
+/// out_of_range, naming the minimum, when the crossover exceeds the gas made.
+void fill_water_cell_gases(CellResult& result, double electrode_current_density, const CrossoverFluxes& crossover,
+                           double recombination, const char* model, const OperatingPoint& point);
 
 }  // namespace ely

@@ -4,6 +4,7 @@
 #include <cmath>
 #include <fmt/format.h>
 
+#include "electrochem/kinetics.hpp"
 #include "thermo/check.hpp"
 #include "thermo/constants.hpp"
 
@@ -82,8 +83,7 @@ double arrhenius_area_specific_resistance(double asr_reference, double activatio
                                           double reference_temperature, double temperature) {
     require_positive(temperature, "temperature");
     require_positive(reference_temperature, "reference temperature");
-    return asr_reference *
-           std::exp(activation_energy / kGasConstant * (1.0 / temperature - 1.0 / reference_temperature));
+    return asr_reference * arrhenius_factor(-activation_energy, reference_temperature, temperature);
 }
 
 }  // namespace ely

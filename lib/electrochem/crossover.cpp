@@ -4,6 +4,7 @@
 #include <fmt/format.h>
 #include <vector>
 
+#include "electrochem/kinetics.hpp"
 #include "thermo/check.hpp"
 #include "thermo/constants.hpp"
 
@@ -11,8 +12,7 @@ namespace ely {
 
 double gas_permeability(const GasPermeability& gas, double temperature) {
     require_positive(temperature, "temperature");
-    return gas.permeability *
-           std::exp(-gas.activation_energy / kGasConstant * (1.0 / temperature - 1.0 / gas.reference_temperature));
+    return gas.permeability * arrhenius_factor(gas.activation_energy, gas.reference_temperature, temperature);
 }
 
 double permeation_flux(double permeability, double partial_pressure, double thickness) {

@@ -3,6 +3,7 @@
 #include <cmath>
 #include <fmt/format.h>
 
+#include "electrochem/kinetics.hpp"
 #include "thermo/check.hpp"
 #include "thermo/constants.hpp"
 
@@ -137,8 +138,7 @@ double mass_fraction_from_molality(double molality, double molar_mass) {
 
 double arrhenius_conductivity(const ArrheniusConductivity& c, double temperature) {
     require_positive(temperature, "temperature");
-    return c.reference_conductivity *
-           std::exp(-c.activation_energy / kGasConstant * (1.0 / temperature - 1.0 / c.reference_temperature));
+    return c.reference_conductivity * arrhenius_factor(c.activation_energy, c.reference_temperature, temperature);
 }
 
 double bubbly_gap_resistance(double gap, double conductivity, double void_fraction) {

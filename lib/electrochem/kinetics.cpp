@@ -8,9 +8,12 @@
 
 namespace ely {
 
+double arrhenius_factor(double activation_energy, double reference_temperature, double temperature) {
+    return std::exp(-activation_energy / kGasConstant * (1.0 / temperature - 1.0 / reference_temperature));
+}
+
 double exchange_current_density(const ElectrodeKinetics& k, double temperature) {
-    return k.exchange_current_density *
-           std::exp(-k.activation_energy / kGasConstant * (1.0 / temperature - 1.0 / k.reference_temperature));
+    return k.exchange_current_density * arrhenius_factor(k.activation_energy, k.reference_temperature, temperature);
 }
 
 double butler_volmer_current(double overpotential, double j0, double alpha_forward, double alpha_backward,

@@ -14,6 +14,10 @@ struct ElectrodeKinetics {
     double alpha_backward;            // transfer coefficient of the reverse direction
 };
 
+/// Arrhenius factor exp[−(E_a/R)(1/T − 1/T_ref)]: a rate, conductivity or permeability at T
+/// over its value at T_ref (a resistance scales with the factor of −E_a).
+double arrhenius_factor(double activation_energy, double reference_temperature, double temperature);
+
 /// j0(T) = j0_ref·exp[−(E_a/R)(1/T − 1/T_ref)].
 double exchange_current_density(const ElectrodeKinetics& k, double temperature);
 

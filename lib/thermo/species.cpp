@@ -6,6 +6,7 @@
 #include "thermo/check.hpp"
 #include "thermo/constants.hpp"
 #include "thermo/if97.hpp"
+#include "thermo/water.hpp"
 
 namespace ely {
 namespace {
@@ -42,7 +43,7 @@ constexpr SpeciesData kData[kSpeciesCount] = {
     {"Cl2", molar_mass::Cl2, 0.0, 2,
      {{298.0, 1000.0, 33.05060, 12.22940, -12.06510, 4.385330, -0.159494, -10.83480, 259.0290, 0.0},
       {1000.0, 3000.0, 42.67730, -5.009570, 1.904621, -0.165641, -2.098480, -17.28980, 269.8400, 0.0}}},
-    {"H2O(g)", molar_mass::H2O, -241826.0, 1,
+    {"H2O(g)", molar_mass::H2O, kWaterVapourFormationEnthalpy, 1,
      {{500.0, 1700.0, 30.09200, 6.832514, 6.793435, -2.534480, 0.082139, -250.8810, 223.3967, -241.8264},
       {0, 0, 0, 0, 0, 0, 0, 0, 0, 0}}},
 };
@@ -68,7 +69,6 @@ MolarProperties from_shomate(const Shomate& c, double formation_enthalpy, double
 // ΔfH°(H2O, g) = −241.826 kJ/mol and S°(H2O, g) = 188.835 J/(mol K) at 298.15 K
 // (Cox, Wagman & Medvedev 1989).
 constexpr double kWaterVapourLowLimit = 273.15;
-constexpr double kVapourEntropy298 = 188.835;
 
 MolarProperties water_vapour_low(double temperature) {
     const double M = molar_mass::H2O;
@@ -76,8 +76,8 @@ MolarProperties water_vapour_low(double temperature) {
     const auto st = if97::region2_ideal_gas(temperature, kStandardPressure);
     MolarProperties p{};
     p.cp = M * st.cp;
-    p.enthalpy = kData[4].formation_enthalpy + M * (st.h - ref.h);
-    p.entropy = kVapourEntropy298 + M * (st.s - ref.s);
+    p.enthalpy = kWaterVapourFormationEnthalpy + M * (st.h - ref.h);
+    p.entropy = kWaterVapourEntropy298 + M * (st.s - ref.s);
     p.gibbs = p.enthalpy - temperature * p.entropy;
     return p;
 }

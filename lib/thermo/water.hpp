@@ -9,6 +9,8 @@ namespace ely {
 
 inline constexpr double kLiquidWaterFormationEnthalpy = -285830.0;  // J/mol
 inline constexpr double kLiquidWaterEntropy298 = 69.950;            // J/(mol K)
+inline constexpr double kWaterVapourFormationEnthalpy = -241826.0;  // J/mol, ΔfH°(H2O, g), CODATA key value
+inline constexpr double kWaterVapourEntropy298 = 188.835;            // J/(mol K), S°(H2O, g), CODATA key value
 
 /// Liquid water at (T, p); p must be at or above the saturation pressure at T.
 MolarProperties liquid_water(double temperature, double pressure);

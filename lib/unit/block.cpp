@@ -12,6 +12,7 @@
 #include "thermo/water.hpp"
 #include "unit/root.hpp"
 #include "cells/custom.hpp"
+#include "electrochem/electrolyte.hpp"
 
 namespace ely {
 
@@ -21,7 +22,7 @@ constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 // Heating values of hydrogen at 25 °C from the CODATA key values (ΔfH° of liquid water and
 // steam), per kg of H2: HHV 141.78 MJ/kg, LHV 119.96 MJ/kg (REFERENCES.md, derived).
 double hhv_per_kg() { return -kLiquidWaterFormationEnthalpy / molar_mass::H2; }
-double lhv_per_kg() { return 241826.0 / molar_mass::H2; }
+double lhv_per_kg() { return -kWaterVapourFormationEnthalpy / molar_mass::H2; }
 
 bool is_drive_input(Var v) {
     return v == in_current_density || v == in_current || v == in_power || v == in_hydrogen_rate || v == in_voltage;
@@ -383,8 +384,8 @@ void Block::fill_outputs(const PointResult& r) {
         // molality m_in and depleted brine of m_out: salt m_in·W_in − m_out·W_out = NaCl consumed;
         // water W_in − W_out = water carried to the catholyte with Na⁺ + vapour in the chlorine −
         // water formed at the anode by the back-migrated hydroxide (2·H2 made − water consumed).
-        const double w_in = design_.brine_feed_nacl_mass_fraction;
-        const double m_in = w_in / ((1.0 - w_in) * molar_mass::NaCl), m_out = c.anolyte_nacl_molality;
+        const double m_in = molality_from_mass_fraction(design_.brine_feed_nacl_mass_fraction, molar_mass::NaCl);
+        const double m_out = c.anolyte_nacl_molality;
         if (!(m_in > m_out))
             throw Error(ErrorKind::config,
                         fmt::format("$.plant.brine_feed_nacl_mass_fraction: feed brine of {:.4g} mol/kg is not stronger "
@@ -397,7 +398,7 @@ void Block::fill_outputs(const PointResult& r) {
         const double depleted_water_kg = feed_water_kg - water_out_kg;
         v_[stream_brine_feed_mass_flow] = feed_water_kg * (1.0 + m_in * molar_mass::NaCl);
         v_[stream_depleted_brine_mass_flow] = depleted_water_kg * (1.0 + m_out * molar_mass::NaCl);
-        v_[stream_depleted_brine_nacl_mass_fraction] = m_out * molar_mass::NaCl / (1.0 + m_out * molar_mass::NaCl);
+        v_[stream_depleted_brine_nacl_mass_fraction] = mass_fraction_from_molality(m_out, molar_mass::NaCl);
     }
     v_[gas_h2_in_o2] = c.h2_in_o2;
     v_[gas_o2_in_h2] = c.o2_in_h2;

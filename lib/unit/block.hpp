@@ -73,7 +73,6 @@ private:
     bool outputs_current_ = false;
     double rectifier_rated_power_ = 0;
     double last_current_density_ = -1;  // warm start of the spec solves
-    std::string last_warning_;
 };
 
 }  // namespace ely

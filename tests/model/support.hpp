@@ -6,6 +6,7 @@
 #include <cmath>
 
 #include <initializer_list>
+#include <memory>
 #include <utility>
 
 #include "cells/cell.hpp"
@@ -26,6 +27,14 @@ void expect_error(F&& f, ErrorKind kind, const char* fragment) {
         EXPECT_EQ(e.kind(), kind) << e.what();
         EXPECT_THAT(e.what(), ::testing::HasSubstr(fragment));
     }
+}
+
+/// A cell of `technology` with its default parameters, the given ones changed.
+inline std::unique_ptr<Cell> cell_with(Technology technology,
+                                       std::initializer_list<std::pair<const char*, double>> settings = {}) {
+    ParameterValues values(cell_parameters(technology));
+    for (const auto& [key, value] : settings) values.set(key, value);
+    return make_cell(technology, values);
 }
 
 /// Property test of a liquid-electrolyte cell: at each pressure pair and temperature the

@@ -23,9 +23,7 @@ using ::testing::HasSubstr;
 namespace {
 
 std::unique_ptr<Cell> alkaline(std::initializer_list<std::pair<const char*, double>> set = {}) {
-    ParameterValues v(alkaline_parameters());
-    for (const auto& [key, value] : set) v.set(key, value);
-    return make_alkaline_cell(v);
+    return ely::test::cell_with(Technology::alkaline, set);
 }
 
 constexpr double kAtm = 101325.0;
@@ -47,17 +45,6 @@ std::vector<std::unique_ptr<Cell>> all_variants() {
 }
 
 }  // namespace
-
-TEST(AlkalineCell, ParametersHaveUnitsSourcesAndValidDefaults) {
-    for (const auto& p : alkaline_parameters()) {
-        EXPECT_GT(std::string(p.unit).size(), 0u) << p.key;
-        EXPECT_GT(std::string(p.source).size(), 0u) << p.key;
-        EXPECT_GE(p.default_value, p.min) << p.key;
-        EXPECT_LE(p.default_value, p.max) << p.key;
-    }
-    EXPECT_EQ(make_cell(Technology::alkaline, ParameterValues(alkaline_parameters()))->technology(),
-              Technology::alkaline);
-}
 
 TEST(AlkalineCell, TypicalVoltageAt04AcmSquared) {
     // 0.4 A/cm², 80 °C, 30 wt% KOH: 1.8–2.1 V (common practice; IRENA 2020: alkaline 0.2–0.8 A/cm²).

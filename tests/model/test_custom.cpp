@@ -4,31 +4,17 @@
 #include <gmock/gmock.h>
 #include <gtest/gtest.h>
 
-#include <atomic>
 #include <cmath>
-#include <cstdlib>
 #include <limits>
-#include <new>
 
 #include "cells/custom.hpp"
 #include "electrochem/kinetics.hpp"
 #include "thermo/constants.hpp"
 #include "thermo/error.hpp"
 #include "thermo/reaction.hpp"
+#include "alloc_counter.hpp"
 #include "support.hpp"
 
-// Same weak counting operator new as in test_brine.cpp (identical inline counters), see there.
-namespace ely_test_alloc {
-inline std::atomic<long> count{0};
-inline std::atomic<bool> counting{false};
-}  // namespace ely_test_alloc
-__attribute__((weak)) void* operator new(std::size_t n) {
-    if (ely_test_alloc::counting.load(std::memory_order_relaxed)) ely_test_alloc::count.fetch_add(1);
-    if (void* p = std::malloc(n == 0 ? 1 : n)) return p;
-    throw std::bad_alloc();
-}
-__attribute__((weak)) void operator delete(void* p) noexcept { std::free(p); }
-__attribute__((weak)) void operator delete(void* p, std::size_t) noexcept { std::free(p); }
 
 using namespace ely;
 using ely::test::expect_error;
@@ -314,14 +300,8 @@ TEST(Custom, EvaluateAllocatesOnlyTheShareVector) {
     auto cell = make_custom_cell(zinc_cell());
     const OperatingPoint p = point(500.0);
     CellResult r = cell->evaluate(p);
-    ely_test_alloc::count = 0;
-    ely_test_alloc::counting = true;
-    void* probe = ::operator new(32);
-    ::operator delete(probe);
-    const long probe_count = ely_test_alloc::count.load();
-    r = cell->evaluate(p);
-    ely_test_alloc::counting = false;
-    if (probe_count != 1) GTEST_SKIP() << "operator new is replaced elsewhere in this test program; cannot count";
-    EXPECT_EQ(ely_test_alloc::count.load(), 2) << "evaluate() allocated more than its share vector";
+    const long allocations = ely::test::count_allocations([&] { r = cell->evaluate(p); });
+    if (allocations < 0) GTEST_SKIP() << "operator new is replaced elsewhere in this test program; cannot count";
+    EXPECT_EQ(allocations, 1) << "evaluate() allocated more than its share vector";
     EXPECT_EQ(r.reaction_current_efficiency.size(), 3u);
 }

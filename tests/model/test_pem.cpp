@@ -23,9 +23,7 @@ using ::testing::HasSubstr;
 namespace {
 
 std::unique_ptr<Cell> pem(std::initializer_list<std::pair<const char*, double>> set = {}) {
-    ParameterValues v(pem_parameters());
-    for (const auto& [key, value] : set) v.set(key, value);
-    return make_pem_cell(v);
+    return ely::test::cell_with(Technology::pem, set);
 }
 
 constexpr double kAtm = 101325.0;
@@ -34,18 +32,6 @@ const double kCurrentDensities[] = {1000.0, 2000.0, 5000.0, 1e4, 2e4, 3e4, 4e4};
 const std::pair<double, double> kPressures[] = {{kAtm, kAtm}, {kAtm, 30e5}, {10e5, 10e5}, {2e5, 50e5}};  // anode, cathode
 
 }  // namespace
-
-TEST(PemCell, ParametersHaveUnitsSourcesAndValidDefaults) {
-    for (const auto& p : pem_parameters()) {
-        EXPECT_GT(std::string(p.unit).size(), 0u) << p.key;
-        EXPECT_GT(std::string(p.source).size(), 0u) << p.key;
-        EXPECT_GT(std::string(p.description).size(), 0u) << p.key;
-        EXPECT_GE(p.default_value, p.min) << p.key;
-        EXPECT_LE(p.default_value, p.max) << p.key;
-    }
-    EXPECT_EQ(cell_parameters(Technology::pem).size(), pem_parameters().size());
-    EXPECT_EQ(make_cell(Technology::pem, ParameterValues(pem_parameters()))->technology(), Technology::pem);
-}
 
 TEST(PemCell, TypicalVoltageAt2AcmSquared) {
     // 2 A/cm², 80 °C, 30 bar cathode, atmospheric anode: 1.8–2.0 V (common practice; IRENA 2020

@@ -21,9 +21,7 @@ using ::testing::HasSubstr;
 namespace {
 
 std::unique_ptr<Cell> soec(std::initializer_list<std::pair<const char*, double>> set = {}) {
-    ParameterValues v(solid_oxide_parameters());
-    for (const auto& [key, value] : set) v.set(key, value);
-    return make_solid_oxide_cell(v);
+    return ely::test::cell_with(Technology::solid_oxide, set);
 }
 
 constexpr double kAtm = 101325.0;
@@ -41,17 +39,6 @@ const double kCurrentDensities[] = {0.0, 1000.0, 3000.0, 5000.0, 1e4, 1.5e4, 2e4
 const std::pair<double, double> kPressures[] = {{kAtm, kAtm}, {5e5, 5e5}, {kAtm, 3e5}};
 
 }  // namespace
-
-TEST(SolidOxideCell, ParametersHaveUnitsSourcesAndValidDefaults) {
-    for (const auto& p : solid_oxide_parameters()) {
-        EXPECT_GT(std::string(p.unit).size(), 0u) << p.key;
-        EXPECT_GT(std::string(p.source).size(), 0u) << p.key;
-        EXPECT_GE(p.default_value, p.min) << p.key;
-        EXPECT_LE(p.default_value, p.max) << p.key;
-    }
-    EXPECT_EQ(make_cell(Technology::solid_oxide, ParameterValues(solid_oxide_parameters()))->technology(),
-              Technology::solid_oxide);
-}
 
 TEST(SolidOxideCell, OpenCircuitVoltageAgainstJanaf) {
     // 800 °C, x_H2O = x_H2 = 0.5, air (x_O2 = 0.21) at 1 atm:

@@ -170,21 +170,15 @@ public:
 
     // Conservative: bypass currents keep the electrode current below the terminal current.
     double current_density_limit(const OperatingPoint&) const override {
-        return std::min(envelope_.current_density_max, limiting_current_density_ * (1.0 - 1e-9));
+        return current_density_cap(envelope_.current_density_max, limiting_current_density_);
     }
 
     // Where the electrode current just makes up for the gas crossing the separator; with bypass
     // currents the terminal current must be larger (exact for the fixed shunt fraction, a lower
     // bound otherwise, which the unit layer widens).
     double current_density_minimum(const OperatingPoint& p) const override {
-        const double t = p.temperature;
-        const double a_w = koh_water_activity_balej(molality_, t);
-        const double p_vapour = a_w * water_saturation_pressure(t);
-        const double n_h2 = permeation_flux(gas_permeability(h2_, t), p.pressure_cathode - p_vapour + supersaturation_,
-                                            separator_thickness_);
-        const double n_o2 = permeation_flux(gas_permeability(o2_, t), p.pressure_anode - p_vapour + supersaturation_,
-                                            separator_thickness_);
-        const double j_min = std::max(2.0 * kFaraday * (n_h2 + 2.0 * recombination_ * n_o2), 4.0 * kFaraday * n_o2);
+        const double j_min = crossover_minimum_current_density(
+            crossover(p, koh_water_activity_balej(molality_, p.temperature)), recombination_);
         return (!ulleberg_ && shunt_model_ == 1) ? j_min / (1.0 - shunt_fraction_) : j_min;
     }
 
@@ -205,15 +199,8 @@ public:
             return r;
         }
 
-        // Crossover driven by the partial pressures of the wet gases over the electrolyte plus the
-        // supersaturation of the dissolved gas at the electrodes.
-        const double p_vapour = a_w * water_saturation_pressure(t);
-        const double p_h2 = p.pressure_cathode - p_vapour + supersaturation_;
-        const double p_o2 = p.pressure_anode - p_vapour + supersaturation_;
-        const double n_h2 = permeation_flux(gas_permeability(h2_, t), p_h2, separator_thickness_);
-        const double n_o2 = permeation_flux(gas_permeability(o2_, t), p_o2, separator_thickness_);
-        const double n_o2_recombined = recombination_ * n_o2;
-        const double h2_lost = n_h2 + 2.0 * n_o2_recombined;
+        const CrossoverFluxes x = crossover(p, a_w);
+        const double h2_lost = x.hydrogen + 2.0 * recombination_ * x.oxygen;
 
         // Electrode current density: the terminal current less bypass currents that make no gas.
         double j_e = j;
@@ -237,14 +224,7 @@ public:
                 if (converged) break;
             }
         }
-        const double j_min = std::max(2.0 * kFaraday * h2_lost, 4.0 * kFaraday * n_o2);
-        if (!(j_e > j_min)) {
-            throw Error(ErrorKind::out_of_range,
-                        fmt::format("alkaline cell: current density {:g} A/m2 (electrode current density {:g} A/m2) is "
-                                    "at or below the minimum at which the gas produced exceeds the gas crossover "
-                                    "({:g} A/m2 of electrode current; {:g} K, anode {:g} Pa, cathode {:g} Pa)",
-                                    j, j_e, j_min, t, p.pressure_anode, p.pressure_cathode));
-        }
+        fill_water_cell_gases(r, j_e, x, recombination_, "alkaline", p);
         const Losses losses = compute_losses(j_e, t, sigma);
         if (j_e > 0.95 * limiting_current_density_) r.warnings |= kWarnNearLimitingCurrent;
         r.activation_anode = losses.activation_anode;
@@ -252,21 +232,21 @@ public:
         r.ohmic = losses.ohmic;
         r.concentration = losses.concentration;
         r.voltage = r.reversible_voltage + r.activation_anode + r.activation_cathode + r.ohmic + r.concentration;
-
-        const double h2_made = j_e / (2.0 * kFaraday), o2_made = j_e / (4.0 * kFaraday);
-        r.cathode_out[kH2] = h2_made - h2_lost;
-        r.cathode_out[kO2] = n_o2 - n_o2_recombined;
-        r.anode_out[kO2] = o2_made - n_o2;
-        r.anode_out[kH2] = n_h2;
-        r.consumed[kH2O] = r.cathode_out[kH2] + r.anode_out[kH2];
-
-        r.faraday_efficiency = r.cathode_out[kH2] / (j / (2.0 * kFaraday));
-        r.h2_in_o2 = r.anode_out[kH2] / (r.anode_out[kO2] + r.anode_out[kH2]);
-        r.o2_in_h2 = r.cathode_out[kO2] / (r.cathode_out[kH2] + r.cathode_out[kO2]);
         return r;
     }
 
 private:
+    // Crossover driven by the partial pressures of the wet gases over the electrolyte (water
+    // activity a_w) plus the supersaturation of the dissolved gas at the electrodes.
+    CrossoverFluxes crossover(const OperatingPoint& p, double a_w) const {
+        const double t = p.temperature;
+        const double p_vapour = a_w * water_saturation_pressure(t);
+        return {permeation_flux(gas_permeability(h2_, t), p.pressure_cathode - p_vapour + supersaturation_,
+                                separator_thickness_),
+                permeation_flux(gas_permeability(o2_, t), p.pressure_anode - p_vapour + supersaturation_,
+                                separator_thickness_)};
+    }
+
     Losses compute_losses(double j_e, double t, double sigma) const {
         Losses l{};
         l.concentration = concentration_overpotential(j_e, limiting_current_density_, t, 2);

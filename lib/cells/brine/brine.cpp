@@ -8,6 +8,7 @@
 #include <fmt/format.h>
 
 #include "cells/technologies.hpp"
+#include "electrochem/conduction.hpp"
 #include "electrochem/electrolyte.hpp"
 #include "electrochem/kinetics.hpp"
 #include "thermo/check.hpp"
@@ -56,8 +57,8 @@ private:
 };
 
 double BrineCell::area_specific_resistance(double t) const {
-    const double membrane = s_.membrane_asr * std::exp(s_.membrane_activation_energy / kGasConstant *
-                                                       (1.0 / t - 1.0 / s_.membrane_reference_temperature));
+    const double membrane = arrhenius_area_specific_resistance(s_.membrane_asr, s_.membrane_activation_energy,
+                                                               s_.membrane_reference_temperature, t);
     const double anolyte =
         bubbly_gap_resistance(s_.anolyte_gap, arrhenius_conductivity(s_.anolyte_conductivity, t), s_.anolyte_void_fraction);
     const double catholyte = bubbly_gap_resistance(s_.catholyte_gap, arrhenius_conductivity(s_.catholyte_conductivity, t),

@@ -107,12 +107,11 @@ public:
     std::unique_ptr<Cell> clone() const override { return std::make_unique<PemCell>(*this); }
 
     double current_density_limit(const OperatingPoint&) const override {
-        return std::min(envelope_.current_density_max, limiting_current_density_ * (1.0 - 1e-9));
+        return current_density_cap(envelope_.current_density_max, limiting_current_density_);
     }
 
     double current_density_minimum(const OperatingPoint& p) const override {
-        const auto x = crossover(p);
-        return std::max(2.0 * kFaraday * (x.n_h2 + 2.0 * recombination_ * x.n_o2), 4.0 * kFaraday * x.n_o2);
+        return crossover_minimum_current_density(crossover(p), recombination_);
     }
 
     CellResult evaluate(const OperatingPoint& p) const override {
@@ -138,41 +137,14 @@ public:
         r.ohmic = j * (thickness_ / sigma + contact_resistance_);
         r.voltage = r.reversible_voltage + r.activation_anode + r.activation_cathode + r.ohmic + r.concentration;
 
-        const auto x = crossover(p);
-        const double n_h2 = x.n_h2, n_o2 = x.n_o2;
-        const double n_o2_recombined = recombination_ * n_o2;
-
-        const double h2_made = j / (2.0 * kFaraday), o2_made = j / (4.0 * kFaraday);
-        const double h2_cathode = h2_made - n_h2 - 2.0 * n_o2_recombined;
-        const double o2_anode = o2_made - n_o2;
-        if (!(h2_cathode > 0.0 && o2_anode > 0.0)) {
-            const double j_min = std::max(2.0 * kFaraday * (n_h2 + 2.0 * n_o2_recombined), 4.0 * kFaraday * n_o2);
-            throw Error(ErrorKind::out_of_range,
-                        fmt::format("pem cell: current density {:g} A/m2 is at or below the minimum {:g} A/m2 at which "
-                                    "the gas produced exceeds the gas crossover ({:g} K, anode {:g} Pa, cathode {:g} Pa)",
-                                    j, j_min, t, p.pressure_anode, p.pressure_cathode));
-        }
-        r.cathode_out[kH2] = h2_cathode;
-        r.cathode_out[kO2] = n_o2 - n_o2_recombined;
-        r.anode_out[kO2] = o2_anode;
-        r.anode_out[kH2] = n_h2;
-        // Hydrogen balance: every H2 molecule leaving (either side) came from one reacted H2O;
-        // recombined water returns to the water loop.
-        r.consumed[kH2O] = r.cathode_out[kH2] + r.anode_out[kH2];
-
-        r.faraday_efficiency = h2_cathode / h2_made;
-        r.h2_in_o2 = r.anode_out[kH2] / (r.anode_out[kO2] + r.anode_out[kH2]);
-        r.o2_in_h2 = r.cathode_out[kO2] / (r.cathode_out[kH2] + r.cathode_out[kO2]);
+        fill_water_cell_gases(r, j, crossover(p), recombination_, "pem", p);
         r.water_drag = drag_ * j / kFaraday;
         return r;
     }
 
 private:
-    struct Crossover {
-        double n_h2, n_o2;  // mol/(m² s)
-    };
     // Crossover driven by the partial pressures of the wet gases (saturated at T, a_w = 1).
-    Crossover crossover(const OperatingPoint& p) const {
+    CrossoverFluxes crossover(const OperatingPoint& p) const {
         const double t = p.temperature;
         const double p_sat = water_saturation_pressure(t);
         const double p_h2 = p.pressure_cathode - p_sat, p_o2 = p.pressure_anode - p_sat;

@@ -104,8 +104,9 @@ public:
 
     double current_density_limit(const OperatingPoint& p) const override {
         require_positive(p.temperature, "solid_oxide cell: temperature");
-        return std::min(envelope_.current_density_max,
-                        limiting_current_density(p.temperature) * (1.0 - 1e-9) / (1.0 - leakage_));
+        // The limit applies to the ionic share of the current.
+        return current_density_cap(envelope_.current_density_max,
+                                   limiting_current_density(p.temperature) / (1.0 - leakage_));
     }
 
     /// Steam diffusion limit through the cathode support at the outlet composition:
