@@ -7,7 +7,7 @@
 #include <string>
 
 #include "elyblock/elyblock.h"
-#include "thermo/error.hpp"
+#include "base/error.hpp"
 
 namespace ely::capi {
 

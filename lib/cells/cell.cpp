@@ -3,7 +3,7 @@
 #include <fmt/format.h>
 
 #include "cells/technologies.hpp"
-#include "thermo/check.hpp"
+#include "base/check.hpp"
 
 namespace ely {
 

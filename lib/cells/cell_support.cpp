@@ -6,7 +6,7 @@
 #include <string>
 
 #include "thermo/constants.hpp"
-#include "thermo/error.hpp"
+#include "base/error.hpp"
 
 namespace ely {
 

@@ -9,7 +9,7 @@
 #include <fmt/format.h>
 #include <limits>
 
-#include "thermo/check.hpp"
+#include "base/check.hpp"
 #include "thermo/constants.hpp"
 #include "thermo/reaction.hpp"
 

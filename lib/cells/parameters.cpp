@@ -2,8 +2,8 @@
 
 #include <fmt/format.h>
 
-#include "thermo/check.hpp"
-#include "thermo/error.hpp"
+#include "base/check.hpp"
+#include "base/error.hpp"
 
 namespace ely {
 

@@ -5,7 +5,7 @@
 #include <cstdlib>
 #include <fmt/format.h>
 
-#include "thermo/error.hpp"
+#include "base/error.hpp"
 
 namespace ely {
 namespace {

@@ -5,7 +5,7 @@
 #include <vector>
 
 #include "electrochem/kinetics.hpp"
-#include "thermo/check.hpp"
+#include "base/check.hpp"
 #include "thermo/constants.hpp"
 
 namespace ely {

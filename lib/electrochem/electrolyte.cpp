@@ -4,7 +4,7 @@
 #include <fmt/format.h>
 
 #include "electrochem/kinetics.hpp"
-#include "thermo/check.hpp"
+#include "base/check.hpp"
 #include "thermo/constants.hpp"
 
 namespace ely {

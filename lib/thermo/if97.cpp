@@ -5,8 +5,8 @@
 #include <cstddef>
 #include <fmt/format.h>
 
-#include "thermo/check.hpp"
-#include "thermo/error.hpp"
+#include "base/check.hpp"
+#include "base/error.hpp"
 
 namespace ely::if97 {
 namespace {

@@ -2,7 +2,7 @@
 // IAPWS-IF97 (IAPWS R7-97(2012)): regions 1 (compressed liquid), 2 (vapour) and 4
 // (saturation line) of ordinary water, with the B23 boundary equation.
 // SI units throughout: K, Pa, m3/kg, J/kg, J/(kg K).
-// Every function throws ely::Error (thermo/error.hpp): ErrorKind::invalid_argument for a
+// Every function throws ely::Error (base/error.hpp): ErrorKind::invalid_argument for a
 // NaN or infinite input or a non-positive temperature or pressure, ErrorKind::out_of_range
 // for an input outside the validity range of the equation.
 #include <string>

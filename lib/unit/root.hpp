@@ -7,7 +7,7 @@
 #include <fmt/format.h>
 #include <utility>
 
-#include "thermo/error.hpp"
+#include "base/error.hpp"
 
 namespace ely {
 

@@ -10,7 +10,7 @@
 #include <utility>
 
 #include "cells/cell.hpp"
-#include "thermo/error.hpp"
+#include "base/error.hpp"
 
 namespace ely::test {
 

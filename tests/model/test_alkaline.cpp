@@ -11,7 +11,7 @@
 #include "electrochem/conduction.hpp"
 #include "electrochem/crossover.hpp"
 #include "thermo/constants.hpp"
-#include "thermo/error.hpp"
+#include "base/error.hpp"
 #include "thermo/reaction.hpp"
 #include "support.hpp"
 

@@ -14,7 +14,7 @@
 #include "cells/technologies.hpp"
 #include "electrochem/electrolyte.hpp"
 #include "thermo/constants.hpp"
-#include "thermo/error.hpp"
+#include "base/error.hpp"
 #include "thermo/reaction.hpp"
 #include "thermo/water.hpp"
 #include "alloc_counter.hpp"

@@ -20,7 +20,7 @@
 #include "cells/cell.hpp"
 #include "config/config.hpp"
 #include "config/units.hpp"
-#include "thermo/error.hpp"
+#include "base/error.hpp"
 
 using namespace ely;
 using ::testing::HasSubstr;

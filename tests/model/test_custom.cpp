@@ -10,7 +10,7 @@
 #include "cells/custom.hpp"
 #include "electrochem/kinetics.hpp"
 #include "thermo/constants.hpp"
-#include "thermo/error.hpp"
+#include "base/error.hpp"
 #include "thermo/reaction.hpp"
 #include "alloc_counter.hpp"
 #include "support.hpp"

@@ -9,7 +9,7 @@
 #include "electrochem/crossover.hpp"
 #include "electrochem/kinetics.hpp"
 #include "thermo/constants.hpp"
-#include "thermo/error.hpp"
+#include "base/error.hpp"
 #include "support.hpp"
 
 using namespace ely;

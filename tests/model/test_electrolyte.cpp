@@ -8,7 +8,7 @@
 
 #include "electrochem/electrolyte.hpp"
 #include "thermo/constants.hpp"
-#include "thermo/error.hpp"
+#include "base/error.hpp"
 #include "support.hpp"
 
 using namespace ely;

@@ -8,7 +8,7 @@
 
 #include <fmt/format.h>
 
-#include "thermo/error.hpp"
+#include "base/error.hpp"
 #include "thermo/if97.hpp"
 
 namespace {

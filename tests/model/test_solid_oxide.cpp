@@ -9,7 +9,7 @@
 #include "cells/cell.hpp"
 #include "cells/technologies.hpp"
 #include "thermo/constants.hpp"
-#include "thermo/error.hpp"
+#include "base/error.hpp"
 #include "thermo/reaction.hpp"
 #include "support.hpp"
 

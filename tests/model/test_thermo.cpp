@@ -6,7 +6,7 @@
 #include <cmath>
 
 #include "thermo/constants.hpp"
-#include "thermo/error.hpp"
+#include "base/error.hpp"
 #include "thermo/if97.hpp"
 #include "thermo/reaction.hpp"
 #include "thermo/species.hpp"

@@ -9,7 +9,7 @@
 
 #include "config/config.hpp"
 #include "thermo/constants.hpp"
-#include "thermo/error.hpp"
+#include "base/error.hpp"
 #include "thermo/species.hpp"
 #include "thermo/water.hpp"
 #include "unit/block.hpp"

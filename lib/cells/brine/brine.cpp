@@ -11,7 +11,7 @@
 #include "electrochem/conduction.hpp"
 #include "electrochem/electrolyte.hpp"
 #include "electrochem/kinetics.hpp"
-#include "thermo/check.hpp"
+#include "base/check.hpp"
 #include "thermo/constants.hpp"
 #include "thermo/reaction.hpp"
 

@@ -21,7 +21,7 @@
 #include "electrochem/conduction.hpp"
 #include "electrochem/crossover.hpp"
 #include "electrochem/kinetics.hpp"
-#include "thermo/check.hpp"
+#include "base/check.hpp"
 #include "thermo/constants.hpp"
 #include "thermo/reaction.hpp"
 #include "thermo/water.hpp"

@@ -25,7 +25,7 @@
 #include "cells/technologies.hpp"
 #include "electrochem/conduction.hpp"
 #include "electrochem/kinetics.hpp"
-#include "thermo/check.hpp"
+#include "base/check.hpp"
 #include "thermo/constants.hpp"
 #include "thermo/reaction.hpp"
 

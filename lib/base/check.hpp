@@ -10,7 +10,7 @@
 #include <fmt/format.h>
 #include <string>
 
-#include "thermo/error.hpp"
+#include "base/error.hpp"
 
 namespace ely {
 
