@@ -1,4 +1,5 @@
 // Library-wide calls of the C interface: versions, status texts, last error, water.
+#include <cstring>
 #include <string>
 
 #include "elyblock/elyblock.h"
@@ -9,18 +10,23 @@
 
 namespace ely::capi {
 namespace {
-thread_local std::string t_last_error;
-}
+// A fixed-size buffer, not a thread_local std::string: a thread-local object with a destructor
+// hangs a process whose thread exits after the host unloaded the library (seen with the Windows
+// DLL under Wine; spreadsheets and simulators load and unload DLLs freely). Longer messages are
+// cut at a UTF-8 character boundary.
+constexpr std::size_t kLastErrorCapacity = 4096;
+thread_local char t_last_error[kLastErrorCapacity];
+}  // namespace
 
 void set_last_error(const std::string& message) noexcept {
-    try {
-        t_last_error = message;
-    } catch (...) {
-        t_last_error.clear();  // out of memory while copying: an empty message beats none
-    }
+    std::size_t n = message.size() < kLastErrorCapacity ? message.size() : kLastErrorCapacity - 1;
+    if (n < message.size())
+        while (n > 0 && (static_cast<unsigned char>(message[n]) & 0xC0) == 0x80) --n;
+    std::memcpy(t_last_error, message.data(), n);
+    t_last_error[n] = '\0';
 }
 
-void clear_last_error() noexcept { t_last_error.clear(); }
+void clear_last_error() noexcept { t_last_error[0] = '\0'; }
 
 int32_t status_of(ErrorKind kind) noexcept {
     switch (kind) {
@@ -47,7 +53,7 @@ ELY_API int32_t ely_abi_version(void) { return ELY_ABI_VERSION; }
 
 ELY_API const char* ely_version(void) { return ELYBLOCK_VERSION_STRING; }
 
-ELY_API const char* ely_last_error(void) { return ely::capi::t_last_error.c_str(); }
+ELY_API const char* ely_last_error(void) { return ely::capi::t_last_error; }
 
 ELY_API const char* ely_status_text(int32_t status) {
     switch (status) {

@@ -760,10 +760,13 @@ PlantDesign parse_config(std::string_view json_text) {
 }
 
 PlantDesign load_config_file(const std::string& path) {
+    // The path is UTF-8: u8path makes it a wide path on Windows, where a narrow one would be
+    // read in the ANSI code page and names outside it would not open.
+    const std::filesystem::path file = std::filesystem::u8path(path);
     std::error_code ec;
-    if (std::filesystem::is_directory(path, ec))
+    if (std::filesystem::is_directory(file, ec))
         throw Error(ErrorKind::io, fmt::format("cannot read config file '{}': it is a directory", path));
-    std::ifstream in(path, std::ios::binary);
+    std::ifstream in(file, std::ios::binary);
     if (!in) throw Error(ErrorKind::io, fmt::format("cannot read config file '{}': {}", path, std::strerror(errno)));
     std::string text((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
     if (in.bad()) throw Error(ErrorKind::io, fmt::format("cannot read config file '{}': read error", path));
