@@ -77,6 +77,13 @@ ELY_API int32_t ely_water_electrolysis_voltages(double temperature_K, double pre
                                                 double pressure_cathode_Pa, double* reversible_V,
                                                 double* thermoneutral_V);
 
+/* ---- species --------------------------------------------------------------------- */
+/* Molar mass, kg/mol, of a species the streams carry: "H2", "O2", "H2O", "N2", "Cl2", "NaCl",
+ * "NaOH", "KOH" (the model's own values, from IUPAC standard atomic weights). Hosts that work
+ * in moles convert the kg/s outputs with it, so their mole balances close as the model's do.
+ * ELY_ERR_UNKNOWN_NAME for any other formula. */
+ELY_API int32_t ely_molar_mass(const char* formula, double* kg_per_mol);
+
 /* ---- the block ---------------------------------------------------------------------
  * Life cycle: create (from JSON text or a file) → set inputs → solve → get outputs →
  * set … → solve … → destroy. Outputs are readable only while they belong to the current
