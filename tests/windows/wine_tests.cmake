@@ -8,7 +8,6 @@
 # when nothing changed, about 2 minutes from scratch on 2 cores); wine.prefix makes a fresh
 # Wine prefix in <build>/wine (about 8 s). The tests share the prefix, so they hold the
 # resource lock "wine" and run one at a time; each ends with wineserver -k.
-include_guard(GLOBAL)
 find_program(ELY_MINGW_CXX x86_64-w64-mingw32-g++-posix)
 find_program(ELY_WIDL x86_64-w64-mingw32-widl)
 find_program(ELY_WINE NAMES wine64 wine PATHS /usr/lib/wine)
@@ -31,7 +30,9 @@ set(ELY_WINDOWS_BUILD ${PROJECT_BINARY_DIR}/windows)
 set(ELY_WINE_PREFIX ${PROJECT_BINARY_DIR}/wine)
 set(ELY_WINE_SCRIPT ${PROJECT_SOURCE_DIR}/tests/windows/wine.sh)
 
-if(ELY_WINE_MISSING STREQUAL "")
+get_property(ely_wine_fixtures GLOBAL PROPERTY ELY_WINE_FIXTURES)
+if(ELY_WINE_MISSING STREQUAL "" AND NOT ely_wine_fixtures)
+  set_property(GLOBAL PROPERTY ELY_WINE_FIXTURES TRUE)
   add_test(NAME windows.build
     COMMAND env ELY_NO_INSTALL=1 ${PROJECT_SOURCE_DIR}/scripts/windows ${ELY_WINDOWS_BUILD})
   set_tests_properties(windows.build PROPERTIES FIXTURES_SETUP ely_windows_build TIMEOUT 1800)
