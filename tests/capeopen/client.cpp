@@ -196,6 +196,44 @@ std::vector<test::CompoundInfo> compounds(std::initializer_list<const wchar_t*> 
     return out;
 }
 
+// A simulation context offering LogMessage (ICapeDiagnostic) by name through IDispatch.
+class Context final : public IDispatch {
+public:
+    std::vector<std::wstring> messages;
+    STDMETHODIMP QueryInterface(REFIID iid, void** out) override {
+        if (!out) return E_POINTER;
+        *out = nullptr;
+        if (iid != IID_IUnknown && iid != IID_IDispatch) return E_NOINTERFACE;
+        *out = static_cast<IDispatch*>(this);
+        AddRef();
+        return S_OK;
+    }
+    STDMETHODIMP_(ULONG) AddRef() override { return ++refs_; }
+    STDMETHODIMP_(ULONG) Release() override {
+        const ULONG n = --refs_;
+        if (n == 0) delete this;
+        return n;
+    }
+    STDMETHODIMP GetTypeInfoCount(UINT* n) override {
+        *n = 0;
+        return S_OK;
+    }
+    STDMETHODIMP GetTypeInfo(UINT, LCID, ITypeInfo**) override { return E_NOTIMPL; }
+    STDMETHODIMP GetIDsOfNames(REFIID, LPOLESTR* names, UINT count, LCID, DISPID* ids) override {
+        if (count != 1 || _wcsicmp(names[0], L"LogMessage") != 0) return DISP_E_UNKNOWNNAME;
+        ids[0] = 2;
+        return S_OK;
+    }
+    STDMETHODIMP Invoke(DISPID id, REFIID, LCID, WORD, DISPPARAMS* params, VARIANT*, EXCEPINFO*, UINT*) override {
+        if (id != 2 || !params || params->cArgs != 1 || params->rgvarg[0].vt != VT_BSTR) return DISP_E_MEMBERNOTFOUND;
+        messages.push_back(from_bstr(params->rgvarg[0].bstrVal));
+        return S_OK;
+    }
+
+private:
+    ULONG refs_ = 1;
+};
+
 // ---- the C interface: what the unit should give -------------------------------------------
 
 struct Reference {
@@ -370,6 +408,9 @@ void water_calculation(ICapeUnit* unit) {
     power.bstrVal = SysAllocString(L"power");
     check(SUCCEEDED(invoke(spec.get(), 2, DISPATCH_PROPERTYPUT, {power}, nullptr)), "spec = power through IDispatch");
     SysFreeString(power.bstrVal);
+    auto* context = new Context;
+    Ptr<ICapeUtilities> utilities = query<ICapeUtilities>(unit);
+    check(SUCCEEDED(utilities->put_simulationContext(context)), "simulation context");
     const double p_dc = 120e3, t = 338.15, pc = 20e5, pa = 2e5, t_feed = 293.15;
     check(SUCCEEDED(set_number(unit, L"in.power", p_dc)), "in.power");
     check(SUCCEEDED(set_number(unit, L"in.temperature", t)), "in.temperature");
@@ -423,6 +464,11 @@ void water_calculation(ICapeUnit* unit) {
     check(h2->flashed && o2->flashed && h2->present.size() == 2, "outlets flashed at T and p by the material's thermodynamics");
     check(o2->vapour_fraction > 0 && o2->vapour_fraction < 1, "the oxygen outlet has liquid surplus water after the flash");
     check_balance({feed}, {h2, o2}, {L"H", L"O", L"N"}, "PEM");
+    // This point is below the plant's minimum load: the solver's alarm reaches the host's log.
+    check(ref.get("alarm.load_low") == 1.0 && context->messages.size() == 1 && contains(context->messages[0], L"load"),
+          "the alarm is logged through the simulation context: " + (context->messages.empty() ? std::string() : u8(context->messages[0])));
+    utilities->put_simulationContext(nullptr);
+    context->Release();
     // Results as output parameters equal the C interface.
     for (const char* name : {"cell.voltage", "stack.power", "heat.duty", "cell.faraday_efficiency", "gas.h2_in_o2",
                              "alarm.any"})
