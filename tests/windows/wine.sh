@@ -7,6 +7,7 @@ set -euo pipefail
 case_name=$1
 shift
 unset DISPLAY WAYLAND_DISPLAY
+export HOME=${HOME:-$(dirname "$WINEPREFIX")}  # Wine wants a home even where CI gives none
 export WINEDEBUG=-all WINEDLLOVERRIDES="mscoree=;mshtml=" LANG=C.UTF-8 LC_ALL=C.UTF-8
 trap '"$ELY_WINESERVER" -k >/dev/null 2>&1 || true' EXIT
 
