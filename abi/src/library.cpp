@@ -1,4 +1,7 @@
 // Library-wide calls of the C interface: versions, status texts, last error, water.
+#include <algorithm>
+#include <cmath>
+#include <fmt/format.h>
 #include <string>
 
 #include "elyblock/elyblock.h"
@@ -10,11 +13,21 @@
 namespace ely::capi {
 namespace {
 thread_local std::string t_last_error;
+constexpr std::size_t kMaxMessageBytes = 4096;
 }
 
 void set_last_error(const std::string& message) noexcept {
+    // ely_last_error() hands out a C string: an embedded NUL would cut the message there, so it
+    // is written as \x00. The length is bounded whatever user text a message quotes.
     try {
-        t_last_error = message;
+        t_last_error.clear();
+        const std::size_t n = std::min(message.size(), kMaxMessageBytes);
+        t_last_error.reserve(n + 32);
+        for (std::size_t i = 0; i < n; ++i) {
+            if (message[i] == '\0') t_last_error += "\\x00";
+            else t_last_error += message[i];
+        }
+        if (n < message.size()) t_last_error += " \xE2\x80\xA6 (message cut at " + std::to_string(kMaxMessageBytes) + " bytes)";
     } catch (...) {
         t_last_error.clear();  // out of memory while copying: an empty message beats none
     }
@@ -85,6 +98,19 @@ ELY_API int32_t ely_water_electrolysis_voltages(double temperature_K, double pre
     return ely::capi::guard([&] {
         if (reversible_V == nullptr && thermoneutral_V == nullptr)
             throw ely::Error(ely::ErrorKind::invalid_argument, "reversible_V and thermoneutral_V are both NULL");
+        // The liquid water of the reaction is IAPWS-IF97 region 1, valid up to 100 MPa (IAPWS
+        // R7-97(2012), section 1); the Nernst term takes the product gases as ideal, which is
+        // itself an extrapolation long before that. Pressures beyond it are outside the correlation.
+        constexpr double kPressureMax = 100e6;  // Pa
+        const struct { double value; const char* name; } pressures[] = {{pressure_anode_Pa, "anode pressure"},
+                                                                        {pressure_cathode_Pa, "cathode pressure"}};
+        for (const auto& p : pressures) {
+            if (std::isfinite(p.value) && p.value > kPressureMax)
+                throw ely::Error(ely::ErrorKind::out_of_range,
+                                 fmt::format("{} {:g} Pa is above 1e8 Pa (100 MPa), the upper limit of the "
+                                             "IAPWS-IF97 liquid water properties this correlation uses",
+                                             p.name, p.value));
+        }
         const double e_rev = ely::reversible_voltage_liquid_water(temperature_K, pressure_anode_Pa, pressure_cathode_Pa);
         const double e_tn = ely::thermoneutral_voltage_hhv(temperature_K);
         if (reversible_V) *reversible_V = e_rev;

@@ -451,8 +451,9 @@ TEST(Config, OutOfRange) {
     expect_config_error(stack(R"("cells": 1e300, "active_area": 0.1)"), "$.stack.cells", "above the upper limit 10000");
     expect_config_error(stack(R"("cells": 10, "active_area": 0.1, "stacks": 1001)"), "$.stack.stacks",
                         "above the upper limit 1000");
-    expect_config_error(stack(R"("cells": 10, "active_area": 0)"), "$.stack.active_area", "0 m2 must be above 0 m2");
-    expect_config_error(stack(R"("cells": 10, "active_area": -0.1)"), "$.stack.active_area", "must be above 0 m2");
+    expect_config_error(stack(R"("cells": 10, "active_area": 0)"), "$.stack.active_area", "below the lower limit 1e-06 m2");
+    expect_config_error(stack(R"("cells": 10, "active_area": -0.1)"), "$.stack.active_area", "below the lower limit");
+    expect_config_error(stack(R"("cells": 10, "active_area": 5e-324)"), "$.stack.active_area", "below the lower limit");
     expect_config_error(stack(R"("cells": 10, "active_area": 1e400)"), "$.stack.active_area", "not a finite number");
     expect_config_error(pem_with(R"("plant": { "limits": { "min_load_fraction": 1.5 } })"),
                         "$.plant.limits.min_load_fraction", "1.5 is above the upper limit 1");
