@@ -152,8 +152,7 @@ ELY_API int32_t ely_block_solve_batch(const ely_block* block, size_t n_points, i
         require_pointer(block, "block");
         // Every check holds for every count, zero included: an index array is read whenever its
         // count is positive (its indices are checked even for zero points), a data array whenever
-        // there is a point to read or write. A value array of n_points * count doubles must be
-        // addressable.
+        // there is a point to read or write. The arrays of n_points rows must be addressable.
         if (n_inputs < 0) throw Error(ErrorKind::invalid_argument, "n_inputs is " + std::to_string(n_inputs) + "; it must not be negative");
         if (n_outputs < 0) throw Error(ErrorKind::invalid_argument, "n_outputs is " + std::to_string(n_outputs) + "; it must not be negative");
         if (n_inputs > 0) require_pointer(input_indices, "input_indices");
@@ -163,8 +162,8 @@ ELY_API int32_t ely_block_solve_batch(const ely_block* block, size_t n_points, i
             if (n_inputs > 0) require_pointer(inputs, "inputs");
             if (n_outputs > 0) require_pointer(outputs, "outputs");
         }
-        const size_t widest = static_cast<size_t>(std::max(n_inputs, n_outputs));
-        if (widest > 0 && n_points > std::numeric_limits<size_t>::max() / sizeof(double) / widest)
+        const size_t row_bytes = std::max(sizeof(int32_t), sizeof(double) * static_cast<size_t>(std::max(n_inputs, n_outputs)));
+        if (n_points > std::numeric_limits<size_t>::max() / row_bytes)
             throw Error(ErrorKind::invalid_argument, "n_points is " + std::to_string(n_points) + ": the value arrays would exceed the address space");
         // Check every index before writing anything.
         for (int32_t i = 0; i < n_inputs; ++i) {

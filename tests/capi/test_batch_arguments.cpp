@@ -103,6 +103,11 @@ TEST(BatchArguments, PointCountBeyondTheAddressSpaceIsAnError) {
               ELY_ERR_INVALID_ARGUMENT);
     EXPECT_THAT(ely_last_error(), HasSubstr("n_points"));
     EXPECT_EQ(st[0], 99);
+    // With no inputs and no outputs the status array alone must be addressable.
+    EXPECT_EQ(ely_block_solve_batch(h.get(), std::numeric_limits<size_t>::max(), 0, nullptr, nullptr, 0, nullptr,
+                                    nullptr, st, nullptr, nullptr),
+              ELY_ERR_INVALID_ARGUMENT);
+    EXPECT_EQ(st[0], 99);
 }
 
 TEST(BatchArguments, CancelAtTheFinalProgressCallIsNotOk) {
