@@ -3,6 +3,7 @@
 #include <cmath>
 #include <fmt/format.h>
 
+#include "electrochem/conduction.hpp"
 #include "electrochem/kinetics.hpp"
 #include "base/check.hpp"
 #include "thermo/constants.hpp"
@@ -145,8 +146,7 @@ double bubbly_gap_resistance(double gap, double conductivity, double void_fracti
     require_finite(gap, "electrolyte gap");
     if (gap < 0.0) throw Error(ErrorKind::invalid_argument, fmt::format("electrolyte gap {:g} m is negative", gap));
     require_positive(conductivity, "electrolyte conductivity");
-    require_within(void_fraction, 0.0, 0.9, "gas void fraction", "");
-    return gap / (conductivity * std::pow(1.0 - void_fraction, 1.5));
+    return gap / bruggeman_conductivity(conductivity, void_fraction);
 }
 
 }  // namespace ely

@@ -6,6 +6,7 @@
 #include <cmath>
 
 #include "electrochem/conduction.hpp"
+#include "electrochem/electrolyte.hpp"
 #include "electrochem/crossover.hpp"
 #include "electrochem/kinetics.hpp"
 #include "thermo/constants.hpp"
@@ -100,7 +101,7 @@ TEST(ElectrochemConduction, KohDensityAndMolarityOf30WtPercent) {
     EXPECT_NEAR(koh_density(0.30, 298.15), 1290.0, 6.0);
     EXPECT_NEAR(koh_molarity(0.30, 298.15), 6.9, 0.05);
     // Molality is w/(M_KOH (1 − w)): 0.3/(0.0561056·0.7) = 7.6387 mol/kg [D].
-    EXPECT_LT(rel(koh_molality(0.30), 0.30 / (0.0561056 * 0.70)), 1e-5);
+    EXPECT_LT(rel(molality_from_mass_fraction(0.30, molar_mass::KOH), 0.30 / (0.0561056 * 0.70)), 1e-5);
     // The solution expands on heating: molarity falls with temperature.
     EXPECT_LT(koh_molarity(0.30, 353.15), koh_molarity(0.30, 298.15));
 }
@@ -143,7 +144,7 @@ TEST(ElectrochemConduction, KohWaterActivityBalej) {
         previous = a;
     }
     // 30 wt% KOH at 80 °C: vapour pressure about 0.6 of pure water's (from memory).
-    const double a30 = koh_water_activity_balej(koh_molality(0.30), 353.15);
+    const double a30 = koh_water_activity_balej(molality_from_mass_fraction(0.30, molar_mass::KOH), 353.15);
     EXPECT_GT(a30, 0.55);
     EXPECT_LT(a30, 0.68);
     // The published fit term by term [D].

@@ -7,6 +7,7 @@
 #include <cmath>
 #include <fmt/format.h>
 
+#include "cells/cell_support.hpp"
 #include "cells/technologies.hpp"
 #include "electrochem/conduction.hpp"
 #include "electrochem/electrolyte.hpp"
@@ -88,10 +89,8 @@ CellResult BrineCell::evaluate(const OperatingPoint& p) const {
     r.current_density = j;
 
     if (s_.voltage_model == 0) {
-        r.activation_anode = butler_volmer_overpotential(j, exchange_current_density(s_.anode, t), s_.anode.alpha_forward,
-                                                         s_.anode.alpha_backward, t);
-        r.activation_cathode = butler_volmer_overpotential(j, exchange_current_density(s_.cathode, t),
-                                                           s_.cathode.alpha_forward, s_.cathode.alpha_backward, t);
+        r.activation_anode = activation_overpotential(s_.anode, false, j, t);
+        r.activation_cathode = activation_overpotential(s_.cathode, false, j, t);
         r.ohmic = j * area_specific_resistance(t);
     } else {
         // U = U0 + k j: the intercept's excess over E_rev is reported as anode activation, the
@@ -176,14 +175,14 @@ const std::vector<ParameterInfo>& brine_parameters() {
         {"anode_exchange_current_density", "A/m2", 100.0, 1e-6, 1e5,
          "Cl2 evolution on the dimensionally stable anode, geometric area, at the kinetics reference temperature",
          kTypical},
-        {"anode_alpha_forward", "1", 1.5, 0.05, 4.0, "anodic transfer coefficient (Tafel slope 2.303RT/(alpha F): 39 mV/dec at 25 C)",
+        {"anode_transfer_coefficient_forward", "1", 1.5, 0.05, 4.0, "anodic transfer coefficient (Tafel slope 2.303RT/(alpha F): 39 mV/dec at 25 C)",
          kTypical},
-        {"anode_alpha_backward", "1", 0.5, 0.05, 4.0, "cathodic transfer coefficient of the chlorine electrode", kTypical},
+        {"anode_transfer_coefficient_backward", "1", 0.5, 0.05, 4.0, "cathodic transfer coefficient of the chlorine electrode", kTypical},
         {"anode_activation_energy", "J/mol", 30000.0, 0.0, 2e5, "Arrhenius activation energy of the anode j0", kTypical},
         {"cathode_exchange_current_density", "A/m2", 100.0, 1e-6, 1e5,
          "H2 evolution on the activated nickel cathode, geometric area, at the kinetics reference temperature", kTypical},
-        {"cathode_alpha_forward", "1", 1.0, 0.05, 4.0, "cathodic transfer coefficient of H2 evolution", kTypical},
-        {"cathode_alpha_backward", "1", 1.0, 0.05, 4.0, "anodic transfer coefficient of the hydrogen electrode", kTypical},
+        {"cathode_transfer_coefficient_forward", "1", 1.0, 0.05, 4.0, "cathodic transfer coefficient of H2 evolution", kTypical},
+        {"cathode_transfer_coefficient_backward", "1", 1.0, 0.05, 4.0, "anodic transfer coefficient of the hydrogen electrode", kTypical},
         {"cathode_activation_energy", "J/mol", 35000.0, 0.0, 2e5, "Arrhenius activation energy of the cathode j0", kTypical},
         {"kinetics_reference_temperature", "K", 363.15, 273.15, 473.15,
          "reference temperature of both j0 and of the membrane and electrolyte conductivities", "model choice (90 C)"},
@@ -210,11 +209,7 @@ const std::vector<ParameterInfo>& brine_parameters() {
 
 std::unique_ptr<Cell> make_brine_cell(const ParameterValues& v) {
     BrineSettings s{};
-    const double model = v.get("voltage_model");
-    if (model != 0.0 && model != 1.0)
-        throw Error(ErrorKind::invalid_argument,
-                    fmt::format("voltage_model {:g} must be 0 (physics) or 1 (linear fit)", model));
-    s.voltage_model = static_cast<int>(model);
+    s.voltage_model = static_cast<int>(read_choice(v, "voltage_model"));
     s.linear_intercept = v.get("linear_voltage_intercept");
     s.linear_slope = v.get("linear_voltage_slope");
     s.nacl_molality = v.get("anolyte_nacl_molality");
@@ -223,10 +218,8 @@ std::unique_ptr<Cell> make_brine_cell(const ParameterValues& v) {
     s.efficiency_slope = v.get("caustic_efficiency_slope");
     s.water_transport_number = v.get("water_transport_number");
     const double t_ref = v.get("kinetics_reference_temperature");
-    s.anode = {v.get("anode_exchange_current_density"), v.get("anode_activation_energy"), t_ref,
-               v.get("anode_alpha_forward"), v.get("anode_alpha_backward")};
-    s.cathode = {v.get("cathode_exchange_current_density"), v.get("cathode_activation_energy"), t_ref,
-                 v.get("cathode_alpha_forward"), v.get("cathode_alpha_backward")};
+    s.anode = read_kinetics(v, "anode", t_ref);
+    s.cathode = read_kinetics(v, "cathode", t_ref);
     s.membrane_asr = v.get("membrane_asr");
     s.membrane_activation_energy = v.get("membrane_activation_energy");
     s.membrane_reference_temperature = t_ref;

@@ -88,7 +88,7 @@ public:
           contact_resistance_(v.get("contact_resistance")),
           anode_(read_kinetics(v, "anode", kReferenceTemperature)),
           cathode_(read_kinetics(v, "cathode", kReferenceTemperature)),
-          tafel_(read_choice(v, "kinetics_model", 1) == 1),
+          tafel_(read_choice(v, "kinetics_model") == 1),
           diffusivity_(v.get("cathode_effective_diffusivity")),
           support_thickness_(v.get("cathode_support_thickness")),
           leakage_(v.get("electronic_leakage_fraction")) {
