@@ -19,6 +19,9 @@ namespace {
 // Exponent arguments are clamped here: e^600 ≈ 4e260 keeps every current finite (and far above
 // any current density the envelope admits) while the sums stay monotone.
 constexpr double kExponentClamp = 600.0;
+// An exchange current density without activation energy is accepted this close to its reference
+// temperature (K): a temperature converted from °C may differ from it in the last digits.
+constexpr double kReferenceTemperatureTolerance = 1e-6;
 double clamped_exp(double x) { return std::exp(std::clamp(x, -kExponentClamp, kExponentClamp)); }
 
 struct CurrentAndSlope {
@@ -83,7 +86,7 @@ ElectrodeSolution CustomCell::solve_electrode(const std::vector<HalfReaction>& r
         CurrentAndSlope sum{0.0, 0.0};
         for (std::size_t k = 0; k < n; ++k) {
             const auto& kin = reactions[k].kinetics;
-            const double j0 = exchange_current_density(kin, t);
+            const double j0 = half_reaction_exchange_current_density(reactions[k], anode, t);
             const auto c = limited_bv(u - u_k[k], j0, kin.alpha_forward * f, kin.alpha_backward * f,
                                       j0 / reactions[k].limiting_current_density);
             sum.current += c.current;
@@ -139,7 +142,7 @@ ElectrodeSolution CustomCell::solve_electrode(const std::vector<HalfReaction>& r
     std::size_t main = 0;
     for (std::size_t k = 0; k < n; ++k) {
         const auto& kin = reactions[k].kinetics;
-        const double j0 = exchange_current_density(kin, t);
+        const double j0 = half_reaction_exchange_current_density(reactions[k], anode, t);
         const auto c = limited_bv(u - u_k[k], j0, kin.alpha_forward * f, kin.alpha_backward * f,
                                   j0 / reactions[k].limiting_current_density);
         sum_current += c.current;
@@ -149,7 +152,7 @@ ElectrodeSolution CustomCell::solve_electrode(const std::vector<HalfReaction>& r
     const bool differential = !(j > 0.0 && sum_current > 0.0);
     for (std::size_t k = 0; k < n; ++k) {
         const auto& kin = reactions[k].kinetics;
-        const double j0 = exchange_current_density(kin, t);
+        const double j0 = half_reaction_exchange_current_density(reactions[k], anode, t);
         const auto c = limited_bv(u - u_k[k], j0, kin.alpha_forward * f, kin.alpha_backward * f,
                                   j0 / reactions[k].limiting_current_density);
         u_k[k] = differential ? c.slope / sum_slope : c.current / sum_current;
@@ -234,7 +237,12 @@ void check_reaction(const HalfReaction& h, bool anode, std::size_t index) {
     require_positive(h.reactant_activity, where("reactant activity").c_str());
     require_positive(h.product_activity, where("product activity").c_str());
     require_positive(h.kinetics.exchange_current_density, where("exchange current density").c_str());
-    require_finite(h.kinetics.activation_energy, where("activation energy").c_str());
+    if (!std::isnan(h.kinetics.activation_energy)) {  // NaN: not given (see HalfReaction)
+        require_finite(h.kinetics.activation_energy, where("activation energy").c_str());
+        if (h.kinetics.activation_energy < 0.0)
+            throw Error(ErrorKind::invalid_argument,
+                        where("activation energy") + fmt::format(" {:g} J/mol is negative", h.kinetics.activation_energy));
+    }
     require_positive(h.kinetics.reference_temperature, where("kinetics reference temperature").c_str());
     require_positive(h.kinetics.alpha_forward, where("alpha forward").c_str());
     require_positive(h.kinetics.alpha_backward, where("alpha backward").c_str());
@@ -262,6 +270,22 @@ double limited_butler_volmer_current(double overpotential, double j0, double alp
                     fmt::format("limiting current density {} must be positive (or inf for none)", limiting_current_density));
     const double f = kFaraday / (kGasConstant * temperature);
     return limited_bv(overpotential, j0, alpha_forward * f, alpha_backward * f, j0 / limiting_current_density).current;
+}
+
+double half_reaction_exchange_current_density(const HalfReaction& h, bool at_anode, double temperature) {
+    const auto& k = h.kinetics;
+    if (std::isnan(k.activation_energy)) {
+        // Known only at the reference temperature: no silent Arrhenius factor of 1 elsewhere.
+        if (std::fabs(temperature - k.reference_temperature) > kReferenceTemperatureTolerance)
+            throw Error(ErrorKind::out_of_range,
+                        fmt::format("custom cell: {} reaction '{}': activation_energy is not given, so its exchange "
+                                    "current density is known only at its reference temperature {:g} K; the cell runs "
+                                    "at {:g} K: give the activation energy (or a reference temperature equal to the "
+                                    "operating one)",
+                                    side_name(at_anode), h.name, k.reference_temperature, temperature));
+        return k.exchange_current_density;
+    }
+    return exchange_current_density(k, temperature);
 }
 
 double half_reaction_equilibrium_potential(const HalfReaction& h, bool at_anode, double temperature) {

@@ -32,8 +32,10 @@ struct HalfReaction {
     double reactant_activity = 1.0;
     double product_activity = 1.0;
     /// Kinetics in the electrolysis direction of the electrode (alpha_forward: oxidation at the
-    /// anode, reduction at the cathode); j0 on the geometric area, Arrhenius in T.
-    ElectrodeKinetics kinetics{1.0, 0.0, 298.15, 0.5, 0.5};
+    /// anode, reduction at the cathode); j0 on the geometric area, Arrhenius in T. The activation
+    /// energy defaults to NaN, "not given": j0 is then known only at its reference temperature, and
+    /// evaluating the cell at any other temperature is an error naming the reaction (no silent 0).
+    ElectrodeKinetics kinetics{1.0, std::numeric_limits<double>::quiet_NaN(), 298.15, 0.5, 0.5};
     /// Mass-transport limit of the reactant, A/m² (+inf: none). It makes the share of a metal
     /// fall at low ion concentration.
     double limiting_current_density = std::numeric_limits<double>::infinity();
@@ -61,6 +63,10 @@ std::unique_ptr<Cell> make_custom_cell(const CustomCellSpec& spec);
 /// j = j0 (e^{α_f f η} − e^{−α_b f η}) / (1 + (j0/j_lim) e^{α_f f η}), f = F/(RT).
 double limited_butler_volmer_current(double overpotential, double j0, double alpha_forward, double alpha_backward,
                                      double limiting_current_density, double temperature);
+
+/// Exchange current density of a half-reaction at T, A/m²: Arrhenius from its reference value;
+/// an activation energy not given (NaN) is an error at any temperature but the reference one.
+double half_reaction_exchange_current_density(const HalfReaction& reaction, bool at_anode, double temperature);
 
 /// Equilibrium (Nernst) potential of a half-reaction at T vs SHE, V.
 double half_reaction_equilibrium_potential(const HalfReaction& reaction, bool at_anode, double temperature);

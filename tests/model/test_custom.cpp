@@ -305,3 +305,28 @@ TEST(Custom, EvaluateAllocatesOnlyTheShareVector) {
     EXPECT_EQ(allocations, 1) << "evaluate() allocated more than its share vector";
     EXPECT_EQ(r.reaction_current_efficiency.size(), 3u);
 }
+
+TEST(Custom, ActivationEnergyIsRequiredAwayFromTheReferenceTemperature) {
+    // An exchange current density is known at its reference temperature; without an activation energy it
+    // cannot be carried to another temperature, and the cell says so (no silent factor of 1).
+    auto spec = water_cell();
+    spec.cathode[0].kinetics.activation_energy = std::numeric_limits<double>::quiet_NaN();  // not given
+    const auto cell = make_custom_cell(spec);
+    EXPECT_NO_THROW(cell->evaluate(point(1000.0, 298.15)));
+    expect_error([&] { cell->evaluate(point(1000.0, 330.0)); }, ErrorKind::out_of_range,
+                 "cathode reaction 'hydrogen evolution': activation_energy is not given");
+    // The default of a half-reaction is "not given".
+    EXPECT_TRUE(std::isnan(HalfReaction{}.kinetics.activation_energy));
+    // Given, it follows Arrhenius: the overpotential of a lone reaction at 330 K equals Butler-Volmer with
+    // j0(330 K) = j0 exp[-(E/R)(1/330 - 1/298.15)]; 16 kJ/mol: factor 1.86440 [D].
+    spec.cathode[0].kinetics.activation_energy = 16e3;
+    const auto r = make_custom_cell(spec)->evaluate(point(5000.0, 330.0));
+    EXPECT_NEAR(r.activation_cathode, butler_volmer_overpotential(5000.0, 10.0 * 1.86440, 0.5, 0.5, 330.0), 2e-6);
+    // A negative activation energy is refused at build time.
+    spec.cathode[0].kinetics.activation_energy = -1.0;
+    expect_error([&] { make_custom_cell(spec); }, ErrorKind::invalid_argument, "activation energy");
+    // Outside the envelope's fitted range the result is flagged as extrapolated.
+    spec.cathode[0].kinetics.activation_energy = 16e3;
+    spec.envelope.temperature_fit_max = 320.0;
+    EXPECT_TRUE(make_custom_cell(spec)->evaluate(point(1000.0, 330.0)).warnings & kWarnTemperatureExtrapolated);
+}
