@@ -14,6 +14,7 @@
 
 #include "cells/cell.hpp"
 #include "electrochem/kinetics.hpp"
+#include "thermo/species_table.hpp"
 
 namespace ely {
 
@@ -22,8 +23,14 @@ struct HalfReaction {
     std::string product;  // e.g. "Zn"; "H2", "O2" and "Cl2" also fill the flux arrays
     int electrons = 2;    // n per formula unit of product
     /// E° vs SHE at 298.15 K, V: the reduction potential as tabulated (CRC electrochemical series).
+    /// Used when `species` is empty; with species, E°(T) follows from their data instead.
     double standard_potential = 0.0;
     double standard_potential_temperature_coefficient = 0.0;  // dE°/dT, V/K (0: E° held at its 25 °C value)
+    /// The half-reaction's species written as a reduction, ox + n e⁻ → red (ox negative, red positive
+    /// coefficients; H⁺(aq) where protons take part): E°(T) = −ΔG(T)/(nF) vs SHE and the reaction
+    /// enthalpy for the thermoneutral voltage (thermo/species_table.hpp). Empty: the explicit
+    /// standard_potential above, and no enthalpy.
+    std::vector<SpeciesTerm> species{};
     /// Activities in the Nernst equation E = E° + (RT/nF)·ln(a_ox/a_red), each the product of
     /// its species' activities raised to their stoichiometric coefficients. Reactant: the species
     /// consumed in the electrolysis direction — the oxidized one at the cathode (e.g. Zn²⁺), the
@@ -47,9 +54,11 @@ struct CustomCellSpec {
     std::vector<HalfReaction> cathode;  // at least one
     double area_specific_resistance = 0.0;  // Ω·m², electrolyte + separator + contacts
     Envelope envelope{298.15, 373.15, 0.5e5, 5.0e5, 1.0e4, 298.15, 373.15};
-    /// Thermoneutral voltage to report, V. NaN (the default): the liquid-water (HHV) value when the
-    /// main products are H2 and O2, otherwise 0, meaning unknown — the unit layer's energy balance
-    /// does not use this number.
+    /// Thermoneutral voltage, V. NaN (the default): from the reactions' species, weighted by the
+    /// current shares, E_tn = [Σ_cathode share·ΔH_red − Σ_anode share·ΔH_red]/F (ΔH per electron);
+    /// a table whose reactions all make H2 or O2 and give no species is water splitting with liquid
+    /// water (HHV basis). Any other table without species needs this value (make_custom_cell refuses
+    /// it otherwise): N·I·(V − E_tn) is the stack's heat.
     double thermoneutral_voltage = std::numeric_limits<double>::quiet_NaN();
 };
 
@@ -70,6 +79,10 @@ double half_reaction_exchange_current_density(const HalfReaction& reaction, bool
 
 /// Equilibrium (Nernst) potential of a half-reaction at T vs SHE, V.
 double half_reaction_equilibrium_potential(const HalfReaction& reaction, bool at_anode, double temperature);
+
+/// Enthalpy of a half-reaction with species, per mol of electrons, as a reduction completed with the
+/// standard hydrogen electrode (J/mol); NaN when it has no species.
+double half_reaction_enthalpy_per_electron(const HalfReaction& reaction, double temperature);
 
 /// Product molar rate of reaction k, mol/(m² s): share_k·j/(n_k F).
 double custom_product_rate(const HalfReaction& reaction, double share, double current_density);

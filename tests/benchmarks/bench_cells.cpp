@@ -36,6 +36,7 @@ static void evaluate_custom_zinc(benchmark::State& state) {
     spec.anode = {o2};
     spec.cathode = {zn, h2};
     spec.area_specific_resistance = 5e-5;
+    spec.thermoneutral_voltage = 2.279;  // Zn2+ + H2O -> Zn + O2/2 + 2 H+, NBS enthalpies (no species given here)
     const auto cell = ely::make_custom_cell(spec);
     double j = 100.0;
     for (auto _ : state) {
