@@ -1,5 +1,6 @@
 #include "electrochem/electrolyte.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <fmt/format.h>
 
@@ -117,6 +118,37 @@ ElectrolyteActivity aqueous_salt_activity(AqueousSalt salt, double molality, dou
                     fmt::format("{} molality {:g} mol/kg is outside the range 0..{:g} mol/kg of the activity model",
                                 aqueous_salt_name(salt), molality, m_max));
     return pitzer_activity(pitzer_parameters(salt, temperature), debye_huckel_osmotic_slope(temperature), molality);
+}
+
+double RelativeEnthalpies::apparent(double molality) const {
+    return molality > 0.0 ? solute + water / (molality * molar_mass::H2O) : 0.0;
+}
+
+RelativeEnthalpies aqueous_salt_relative_enthalpies(AqueousSalt salt, double molality, double temperature) {
+    const auto at = [&](double t) { return aqueous_salt_activity(salt, molality, t); };
+    const double t_lo = salt == AqueousSalt::sodium_chloride ? kMollerTmin : kPPTmin;
+    const double t_hi = salt == AqueousSalt::sodium_chloride ? kMollerTmax : kPPTmax;
+    require_within(temperature, t_lo, t_hi, "relative enthalpies: temperature", "K");
+    constexpr double h = 0.01;  // K
+    const double lo = std::max(t_lo, temperature - h), hi = std::min(t_hi, temperature + h);
+    const auto a = at(lo), b = at(hi);
+    const double dln_gamma = (std::log(b.mean_activity_coefficient) - std::log(a.mean_activity_coefficient)) / (hi - lo);
+    const double dln_aw = (std::log(b.water_activity) - std::log(a.water_activity)) / (hi - lo);
+    const double rt2 = kGasConstant * temperature * temperature;
+    return {-2.0 * rt2 * dln_gamma, -rt2 * dln_aw};
+}
+
+ReactionProperties brine_electrolysis_at(double temperature, double nacl_molality, double naoh_molality) {
+    const auto standard = brine_electrolysis(temperature);
+    const auto nacl = aqueous_salt_activity(AqueousSalt::sodium_chloride, nacl_molality, temperature);
+    const auto naoh = aqueous_salt_activity(AqueousSalt::sodium_hydroxide, naoh_molality, temperature);
+    const auto l_nacl = aqueous_salt_relative_enthalpies(AqueousSalt::sodium_chloride, nacl_molality, temperature);
+    const auto l_naoh = aqueous_salt_relative_enthalpies(AqueousSalt::sodium_hydroxide, naoh_molality, temperature);
+    const double dh = standard.enthalpy + 2.0 * l_naoh.solute - 2.0 * l_nacl.solute - 2.0 * l_naoh.water;
+    const double dg = standard.gibbs + kGasConstant * temperature *
+                                           (std::log(naoh.electrolyte_activity) * 2.0 -
+                                            std::log(nacl.electrolyte_activity) * 2.0 - 2.0 * std::log(naoh.water_activity));
+    return {dh, (dh - dg) / temperature, dg, 2};
 }
 
 double molality_from_mass_fraction(double mass_fraction, double molar_mass) {
