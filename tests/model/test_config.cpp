@@ -65,9 +65,9 @@ std::string pem_with(const std::string& extra) {
 // electrochemical series (1.229 V and 0 V vs SHE at 25 °C).
 const char* kWaterReactions = R"("reactions": {
     "anode": [ { "name": "oxygen evolution", "product": "O2", "electrons": 4, "standard_potential": 1.229,
-                 "exchange_current_density": 1e-3, "product_molar_mass": 0.032 } ],
+                 "exchange_current_density": 1e-3, "activation_energy": 60e3, "product_molar_mass": 0.032 } ],
     "cathode": [ { "name": "hydrogen evolution", "product": "H2", "electrons": 2, "standard_potential": 0,
-                   "exchange_current_density": 10, "product_molar_mass": 0.002016 } ] })";
+                   "exchange_current_density": 10, "activation_energy": 16e3, "product_molar_mass": 0.002016 } ] })";
 
 std::string custom_minimal(const std::string& extra = "") {
     return std::string(R"({ "technology": "custom", )") + kMinimalTail + ", " + kWaterReactions +
