@@ -12,8 +12,11 @@ using capi_test::Block;
 
 namespace {
 
+// A PEM plant whose anode gas stays below the warning level at its default point (an anode
+// recombination catalyst): these tests check argument handling, so every point must be OK.
 const char* const kPem =
-    R"({"technology":"pem","stack":{"cells":100,"active_area":0.1},"operating":{"spec":"current_density"}})";
+    R"({"technology":"pem","stack":{"cells":100,"active_area":0.1},"cell":{"h2_recombination_fraction_anode":0.9},)"
+    R"("operating":{"spec":"current_density"}})";
 
 // The header's contract: an index array is required whenever its count is positive (even for
 // zero points), the data arrays whenever there is a point; negative counts are errors.

@@ -84,7 +84,10 @@ TEST(SpecModes, CurrentSpecMeetsTheStackCurrentOfTwoStacks) {
 }
 
 TEST(Statuses, AnAlarmIsAWarningWithValidOutputs) {
-    Block b(capi_test::minimal_config("pem"));
+    // With an anode recombination catalyst the anode gas stays below the warning level at
+    // 1.5 A/cm2, so the only alarm at 200 A/m2 is the low load.
+    Block b(R"({"technology":"pem","stack":{"cells":100,"active_area":0.1},)"
+            R"("cell":{"h2_recombination_fraction_anode":0.9},"operating":{"spec":"current_density"}})");
     b.set("in.current_density", 200.0);  // far below the default minimum load
     EXPECT_EQ(ely_block_solve(b.get()), ELY_WARNING);
     EXPECT_THAT(ely_last_error(), HasSubstr("load below the minimum load"));
@@ -105,8 +108,10 @@ TEST(Statuses, NoConvergenceComesThroughAndRollsBack) {
       "plant":{"limits":{"current_density_max":1000}},
       "operating":{"spec":"current_density","current_density":800},
       "reactions":{"anode":[{"name":"slow oxygen evolution","product":"O2","electrons":4,
-                             "standard_potential":"1.229 V","exchange_current_density":1e-257}],
-                   "cathode":[{"name":"hydrogen evolution","product":"H2","electrons":2,"standard_potential":"0 V"}]}})";
+                             "standard_potential":"1.229 V","exchange_current_density":1e-257,
+                             "activation_energy":0}],
+                   "cathode":[{"name":"hydrogen evolution","product":"H2","electrons":2,"standard_potential":"0 V",
+                               "activation_energy":0}]}})";
     Block b(json);
     ASSERT_NE(b.get(), nullptr);
     ASSERT_GE(ely_block_solve(b.get()), 0) << ely_last_error();
