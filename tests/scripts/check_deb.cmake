@@ -85,6 +85,9 @@ run(${root}/usr/bin/elyblock solve ${doc}/examples/demo-plant.json --format json
 if(NOT stdout MATCHES "\"cell.voltage\"")
   message(FATAL_ERROR "the extracted command line printed no cell voltage:\n${stdout}")
 endif()
+if(NOT stdout MATCHES "\"name\":\"Orvenne Terrace hydrogen plant \\(invented demo scenario")
+  message(FATAL_ERROR "the packaged demo plant is not the invented Orvenne Terrace scenario:\n${stdout}")
+endif()
 
 # The consumer example shipped in elyblock-doc, built against the extracted -dev package.
 run(${CMAKE_COMMAND} -S ${doc}/examples/c-consumer -B ${WORK_DIR}/consumer -DCMAKE_PREFIX_PATH=${root}/usr
