@@ -1,10 +1,12 @@
 // The block calls of the C interface: thin wrappers over ely::Block, each inside guard().
+#include <algorithm>
 #include <cmath>
 #include <cstring>
 #include <limits>
 #include <memory>
 #include <string>
 
+#include "base/excerpt.hpp"
 #include "config/config.hpp"
 #include "elyblock/elyblock.h"
 #include "guard.hpp"
@@ -35,7 +37,7 @@ ely::Spec parse_spec(const char* text) {
     for (auto s : all)
         if (std::strcmp(text, ely::spec_name(s)) == 0) return s;
     throw Error(ErrorKind::invalid_argument,
-                std::string("unknown spec '") + text + "'; known: current_density, current, power, hydrogen_rate, voltage");
+                "unknown spec '" + ely::excerpt(text) + "'; known: current_density, current, power, hydrogen_rate, voltage");
 }
 }  // namespace
 
@@ -148,13 +150,21 @@ ELY_API int32_t ely_block_solve_batch(const ely_block* block, size_t n_points, i
                                       ely_progress_fn progress, void* user) {
     return guard([&] {
         require_pointer(block, "block");
-        if (n_inputs < 0 || n_outputs < 0)
-            throw Error(ErrorKind::invalid_argument, "n_inputs and n_outputs must not be negative");
+        // Every check holds for every count, zero included: an index array is read whenever its
+        // count is positive (its indices are checked even for zero points), a data array whenever
+        // there is a point to read or write. The arrays of n_points rows must be addressable.
+        if (n_inputs < 0) throw Error(ErrorKind::invalid_argument, "n_inputs is " + std::to_string(n_inputs) + "; it must not be negative");
+        if (n_outputs < 0) throw Error(ErrorKind::invalid_argument, "n_outputs is " + std::to_string(n_outputs) + "; it must not be negative");
+        if (n_inputs > 0) require_pointer(input_indices, "input_indices");
+        if (n_outputs > 0) require_pointer(output_indices, "output_indices");
         if (n_points > 0) {
             require_pointer(point_status, "point_status");
-            if (n_inputs > 0) { require_pointer(input_indices, "input_indices"); require_pointer(inputs, "inputs"); }
-            if (n_outputs > 0) { require_pointer(output_indices, "output_indices"); require_pointer(outputs, "outputs"); }
+            if (n_inputs > 0) require_pointer(inputs, "inputs");
+            if (n_outputs > 0) require_pointer(outputs, "outputs");
         }
+        const size_t row_bytes = std::max(sizeof(int32_t), sizeof(double) * static_cast<size_t>(std::max(n_inputs, n_outputs)));
+        if (n_points > std::numeric_limits<size_t>::max() / row_bytes)
+            throw Error(ErrorKind::invalid_argument, "n_points is " + std::to_string(n_points) + ": the value arrays would exceed the address space");
         // Check every index before writing anything.
         for (int32_t i = 0; i < n_inputs; ++i) {
             const auto& info = block->model.variable(input_indices[i]);
@@ -196,7 +206,9 @@ ELY_API int32_t ely_block_solve_batch(const ely_block* block, size_t n_points, i
             if (progress && ((k + 1) % 1024 == 0 || k + 1 == n_points) && progress(k + 1, n_points, user) != 0)
                 cancelled = true;
         }
-        if (cancelled && n_points > 0 && point_status[n_points - 1] == ELY_ERR_CANCELLED) {
+        if (cancelled) {
+            // Also when the callback asks to stop at its last call, after every point was solved:
+            // the caller asked to cancel, so the call does not report plain success.
             ely::capi::set_last_error("batch cancelled by the progress callback");
             return ELY_ERR_CANCELLED;
         }

@@ -1,5 +1,8 @@
 // Library-wide calls of the C interface: versions, status texts, last error, water.
+#include <algorithm>
+#include <cmath>
 #include <cstring>
+#include <fmt/format.h>
 #include <string>
 
 #include "elyblock/elyblock.h"
@@ -12,18 +15,36 @@ namespace ely::capi {
 namespace {
 // A fixed-size buffer, not a thread_local std::string: a thread-local object with a destructor
 // hangs a process whose thread exits after the host unloaded the library (seen with the Windows
-// DLL under Wine; spreadsheets and simulators load and unload DLLs freely). Longer messages are
-// cut at a UTF-8 character boundary.
-constexpr std::size_t kLastErrorCapacity = 4096;
-thread_local char t_last_error[kLastErrorCapacity];
+// DLL under Wine; spreadsheets and simulators load and unload DLLs freely).
+constexpr std::size_t kMaxMessageBytes = 4096;
+constexpr char kCutNote[] = " \xE2\x80\xA6 (message cut at 4096 bytes)";
+thread_local char t_last_error[kMaxMessageBytes + sizeof kCutNote];
 }  // namespace
 
 void set_last_error(const std::string& message) noexcept {
-    std::size_t n = message.size() < kLastErrorCapacity ? message.size() : kLastErrorCapacity - 1;
-    if (n < message.size())
-        while (n > 0 && (static_cast<unsigned char>(message[n]) & 0xC0) == 0x80) --n;
-    std::memcpy(t_last_error, message.data(), n);
-    t_last_error[n] = '\0';
+    // ely_last_error() hands out a C string: an embedded NUL would cut the message there, so it
+    // is written as \x00. The length is bounded whatever user text a message quotes; a cut
+    // falls on a UTF-8 character boundary.
+    std::size_t out = 0, i = 0;
+    for (; i < message.size(); ++i) {
+        const bool nul = message[i] == '\0';
+        if (out + (nul ? 4 : 1) > kMaxMessageBytes) break;
+        if (nul) {
+            std::memcpy(t_last_error + out, "\\x00", 4);
+            out += 4;
+        } else {
+            t_last_error[out++] = message[i];
+        }
+    }
+    if (i < message.size()) {
+        while (out > 0 && i > 0 && (static_cast<unsigned char>(message[i]) & 0xC0) == 0x80) {
+            --out;
+            --i;
+        }
+        std::memcpy(t_last_error + out, kCutNote, sizeof kCutNote - 1);
+        out += sizeof kCutNote - 1;
+    }
+    t_last_error[out] = '\0';
 }
 
 void clear_last_error() noexcept { t_last_error[0] = '\0'; }
@@ -91,6 +112,19 @@ ELY_API int32_t ely_water_electrolysis_voltages(double temperature_K, double pre
     return ely::capi::guard([&] {
         if (reversible_V == nullptr && thermoneutral_V == nullptr)
             throw ely::Error(ely::ErrorKind::invalid_argument, "reversible_V and thermoneutral_V are both NULL");
+        // The liquid water of the reaction is IAPWS-IF97 region 1, valid up to 100 MPa (IAPWS
+        // R7-97(2012), section 1); the Nernst term takes the product gases as ideal, which is
+        // itself an extrapolation long before that. Pressures beyond it are outside the correlation.
+        constexpr double kPressureMax = 100e6;  // Pa
+        const struct { double value; const char* name; } pressures[] = {{pressure_anode_Pa, "anode pressure"},
+                                                                        {pressure_cathode_Pa, "cathode pressure"}};
+        for (const auto& p : pressures) {
+            if (std::isfinite(p.value) && p.value > kPressureMax)
+                throw ely::Error(ely::ErrorKind::out_of_range,
+                                 fmt::format("{} {:g} Pa is above 1e8 Pa (100 MPa), the upper limit of the "
+                                             "IAPWS-IF97 liquid water properties this correlation uses",
+                                             p.name, p.value));
+        }
         const double e_rev = ely::reversible_voltage_liquid_water(temperature_K, pressure_anode_Pa, pressure_cathode_Pa);
         const double e_tn = ely::thermoneutral_voltage_hhv(temperature_K);
         if (reversible_V) *reversible_V = e_rev;

@@ -10,10 +10,14 @@
 
 namespace ely {
 
-uint32_t read_choice(const ParameterValues& v, const char* key, int max) {
-    const double x = v.get(key);
-    if (x != std::floor(x) || x < 0.0 || x > max)
-        throw Error(ErrorKind::invalid_argument, fmt::format("{} is {:g}; it must be an integer 0..{}", key, x, max));
+uint32_t read_choice(const ParameterValues& v, const char* key) {
+    const double x = v.get(key);  // within the table's limits: ParameterValues::set checks them
+    double lo = 0.0, hi = 0.0;
+    for (const auto& info : v.infos())
+        if (std::string(info.key) == key) lo = info.min, hi = info.max;
+    if (x != std::floor(x) || x < lo || x > hi)
+        throw Error(ErrorKind::invalid_argument,
+                    fmt::format("{} is {:g}; it must be a whole number {:g}..{:g}", key, x, lo, hi));
     return static_cast<uint32_t>(x);
 }
 
@@ -33,13 +37,19 @@ double activation_overpotential(const ElectrodeKinetics& k, bool tafel, double j
                  : butler_volmer_overpotential(j, j0, k.alpha_forward, k.alpha_backward, t);
 }
 
-double crossover_minimum_current_density(const CrossoverFluxes& x, double recombination) {
-    return std::max(2.0 * kFaraday * (x.hydrogen + 2.0 * recombination * x.oxygen), 4.0 * kFaraday * x.oxygen);
+double crossover_minimum_current_density(const CrossoverFluxes& x, const Recombination& r) {
+    // Hydrogen at the cathode: j/2F > N_H2(j) + 2 r_c N_O2, with N_H2 linear in j.
+    const double hydrogen = 2.0 * kFaraday * (x.hydrogen + 2.0 * r.oxygen_at_cathode * x.oxygen) /
+                            (1.0 - 2.0 * kFaraday * x.hydrogen_per_current_density);
+    // Oxygen at the anode: j/4F > N_O2 + ½ r_a N_H2(j).
+    const double oxygen = 4.0 * kFaraday * (x.oxygen + 0.5 * r.hydrogen_at_anode * x.hydrogen) /
+                          (1.0 - 2.0 * kFaraday * r.hydrogen_at_anode * x.hydrogen_per_current_density);
+    return std::max(hydrogen, oxygen);
 }
 
-void fill_water_cell_gases(CellResult& r, double j_e, const CrossoverFluxes& x, double recombination, const char* model,
-                           const OperatingPoint& p) {
-    const double j_min = crossover_minimum_current_density(x, recombination);
+void fill_water_cell_gases(CellResult& r, double j_e, const CrossoverFluxes& x, const Recombination& rc,
+                           const char* model, const OperatingPoint& p) {
+    const double j_min = crossover_minimum_current_density(x, rc);
     if (!(j_e > j_min)) {
         const std::string electrode =
             j_e == p.current_density ? "" : fmt::format(" (electrode current density {:g} A/m2)", j_e);
@@ -49,11 +59,13 @@ void fill_water_cell_gases(CellResult& r, double j_e, const CrossoverFluxes& x, 
                                 model, p.current_density, electrode, j_min, p.temperature, p.pressure_anode,
                                 p.pressure_cathode));
     }
-    const double o2_recombined = recombination * x.oxygen;
-    r.cathode_out[kH2] = j_e / (2.0 * kFaraday) - x.hydrogen - 2.0 * o2_recombined;
+    const double h2_crossing = x.hydrogen_at(j_e);
+    const double o2_recombined = rc.oxygen_at_cathode * x.oxygen;
+    const double h2_recombined = rc.hydrogen_at_anode * h2_crossing;
+    r.cathode_out[kH2] = j_e / (2.0 * kFaraday) - h2_crossing - 2.0 * o2_recombined;
     r.cathode_out[kO2] = x.oxygen - o2_recombined;
-    r.anode_out[kO2] = j_e / (4.0 * kFaraday) - x.oxygen;
-    r.anode_out[kH2] = x.hydrogen;
+    r.anode_out[kO2] = j_e / (4.0 * kFaraday) - x.oxygen - 0.5 * h2_recombined;
+    r.anode_out[kH2] = h2_crossing - h2_recombined;
     r.consumed[kH2O] = r.cathode_out[kH2] + r.anode_out[kH2];
     r.faraday_efficiency = r.cathode_out[kH2] / (p.current_density / (2.0 * kFaraday));
     r.h2_in_o2 = r.anode_out[kH2] / (r.anode_out[kO2] + r.anode_out[kH2]);

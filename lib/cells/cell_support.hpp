@@ -9,8 +9,9 @@
 
 namespace ely {
 
-/// An integer switch parameter 0..max ("kinetics_model", ...): anything else is an error.
-uint32_t read_choice(const ParameterValues& values, const char* key, int max);
+/// An integer parameter ("kinetics_model", "shunt_cells", ...): its value must be a whole number;
+/// the limits are those of its entry in the parameter table (one limit, one place).
+uint32_t read_choice(const ParameterValues& values, const char* key);
 
 /// Kinetics of one electrode from "<electrode>_exchange_current_density",
 /// "<electrode>_activation_energy", "<electrode>_transfer_coefficient_forward|backward".
@@ -25,15 +26,30 @@ double activation_overpotential(const ElectrodeKinetics& kinetics, bool tafel, d
                                 double temperature);
 
 /// Gas crossing the separator of a water cell, mol/(m² s): hydrogen to the anode side, oxygen
-/// to the cathode side.
+/// to the cathode side. The hydrogen flux may rise with the electrode current density j_e
+/// (supersaturation of dissolved hydrogen at the cathode): N_H2(j_e) = hydrogen +
+/// hydrogen_per_current_density·j_e.
 struct CrossoverFluxes {
-    double hydrogen;
-    double oxygen;
+    double hydrogen;                          // mol/(m² s) at j_e = 0
+    double oxygen;                            // mol/(m² s)
+    double hydrogen_per_current_density = 0;  // mol/(m² s) per A/m², i.e. mol/(A s)
+    double hydrogen_at(double electrode_current_density) const {
+        return hydrogen + hydrogen_per_current_density * electrode_current_density;
+    }
 };
 
-/// Smallest electrode current density whose gas production still exceeds the crossover, A/m²,
-/// when a fraction `recombination` of the oxygen reaching the cathode burns hydrogen there.
-double crossover_minimum_current_density(const CrossoverFluxes& crossover, double recombination);
+/// What happens to the gas that crosses: a fraction of the oxygen reaching the cathode burns
+/// hydrogen there, a fraction of the hydrogen reaching the anode burns oxygen there (a
+/// recombination catalyst); both form water that stays in the loop.
+struct Recombination {
+    double oxygen_at_cathode = 0;    // 0..1
+    double hydrogen_at_anode = 0;    // 0..1
+};
+
+/// Smallest electrode current density whose gas production still exceeds what crosses and
+/// recombines, A/m² (both the hydrogen leaving the cathode and the oxygen leaving the anode
+/// stay positive).
+double crossover_minimum_current_density(const CrossoverFluxes& crossover, const Recombination& recombination);
 
 /// Gas bookkeeping of a water cell (PEM, alkaline): from the electrode current density (the
 /// current that makes gas), the terminal current density and the crossover, fills the product
@@ -41,6 +57,6 @@ double crossover_minimum_current_density(const CrossoverFluxes& crossover, doubl
 /// the loop), the Faraday efficiency on the terminal current and both purities. Throws
 /// out_of_range, naming the minimum, when the crossover exceeds the gas made.
 void fill_water_cell_gases(CellResult& result, double electrode_current_density, const CrossoverFluxes& crossover,
-                           double recombination, const char* model, const OperatingPoint& point);
+                           const Recombination& recombination, const char* model, const OperatingPoint& point);
 
 }  // namespace ely

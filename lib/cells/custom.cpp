@@ -19,6 +19,9 @@ namespace {
 // Exponent arguments are clamped here: e^600 ≈ 4e260 keeps every current finite (and far above
 // any current density the envelope admits) while the sums stay monotone.
 constexpr double kExponentClamp = 600.0;
+// An exchange current density without activation energy is accepted this close to its reference
+// temperature (K): a temperature converted from °C may differ from it in the last digits.
+constexpr double kReferenceTemperatureTolerance = 1e-6;
 double clamped_exp(double x) { return std::exp(std::clamp(x, -kExponentClamp, kExponentClamp)); }
 
 struct CurrentAndSlope {
@@ -52,7 +55,11 @@ struct ElectrodeSolution {
 
 class CustomCell final : public Cell {
 public:
-    explicit CustomCell(CustomCellSpec spec) : spec_(std::move(spec)) {}
+    explicit CustomCell(CustomCellSpec spec) : spec_(std::move(spec)) {
+        has_species_ = true;
+        for (const auto* side : {&spec_.anode, &spec_.cathode})
+            for (const auto& h : *side) has_species_ = has_species_ && !h.species.empty();
+    }
     Technology technology() const override { return Technology::custom; }
     const Envelope& envelope() const override { return spec_.envelope; }
     std::unique_ptr<Cell> clone() const override { return std::make_unique<CustomCell>(*this); }
@@ -73,6 +80,7 @@ private:
     ElectrodeSolution solve_electrode(const std::vector<HalfReaction>& reactions, bool anode, double j, double t,
                                       double* u_k) const;
     CustomCellSpec spec_;
+    bool has_species_ = false;  // every reaction has species: E_tn from their enthalpies
 };
 
 ElectrodeSolution CustomCell::solve_electrode(const std::vector<HalfReaction>& reactions, bool anode, double j,
@@ -83,7 +91,7 @@ ElectrodeSolution CustomCell::solve_electrode(const std::vector<HalfReaction>& r
         CurrentAndSlope sum{0.0, 0.0};
         for (std::size_t k = 0; k < n; ++k) {
             const auto& kin = reactions[k].kinetics;
-            const double j0 = exchange_current_density(kin, t);
+            const double j0 = half_reaction_exchange_current_density(reactions[k], anode, t);
             const auto c = limited_bv(u - u_k[k], j0, kin.alpha_forward * f, kin.alpha_backward * f,
                                       j0 / reactions[k].limiting_current_density);
             sum.current += c.current;
@@ -139,7 +147,7 @@ ElectrodeSolution CustomCell::solve_electrode(const std::vector<HalfReaction>& r
     std::size_t main = 0;
     for (std::size_t k = 0; k < n; ++k) {
         const auto& kin = reactions[k].kinetics;
-        const double j0 = exchange_current_density(kin, t);
+        const double j0 = half_reaction_exchange_current_density(reactions[k], anode, t);
         const auto c = limited_bv(u - u_k[k], j0, kin.alpha_forward * f, kin.alpha_backward * f,
                                   j0 / reactions[k].limiting_current_density);
         sum_current += c.current;
@@ -149,7 +157,7 @@ ElectrodeSolution CustomCell::solve_electrode(const std::vector<HalfReaction>& r
     const bool differential = !(j > 0.0 && sum_current > 0.0);
     for (std::size_t k = 0; k < n; ++k) {
         const auto& kin = reactions[k].kinetics;
-        const double j0 = exchange_current_density(kin, t);
+        const double j0 = half_reaction_exchange_current_density(reactions[k], anode, t);
         const auto c = limited_bv(u - u_k[k], j0, kin.alpha_forward * f, kin.alpha_backward * f,
                                   j0 / reactions[k].limiting_current_density);
         u_k[k] = differential ? c.slope / sum_slope : c.current / sum_current;
@@ -196,10 +204,15 @@ CellResult CustomCell::evaluate(const OperatingPoint& p) const {
 
     if (std::isfinite(spec_.thermoneutral_voltage)) {
         r.thermoneutral_voltage = spec_.thermoneutral_voltage;
-    } else if (anode_main.product == "O2" && cathode_main.product == "H2" && t >= 298.0 && t <= 623.15) {
-        r.thermoneutral_voltage = thermoneutral_voltage_hhv(t);
+    } else if (has_species_) {
+        double enthalpy = 0.0;  // J per mol of electrons through the cell, electrolysis direction
+        for (std::size_t k = 0; k < na; ++k)
+            enthalpy -= shares[k] * half_reaction_enthalpy_per_electron(spec_.anode[k], t);
+        for (std::size_t k = 0; k < nc; ++k)
+            enthalpy += shares[na + k] * half_reaction_enthalpy_per_electron(spec_.cathode[k], t);
+        r.thermoneutral_voltage = enthalpy / kFaraday;
     } else {
-        r.thermoneutral_voltage = 0.0;  // unknown
+        r.thermoneutral_voltage = thermoneutral_voltage_hhv(t);  // a water-splitting table (make_custom_cell)
     }
 
     // Efficiencies and fluxes.
@@ -234,7 +247,12 @@ void check_reaction(const HalfReaction& h, bool anode, std::size_t index) {
     require_positive(h.reactant_activity, where("reactant activity").c_str());
     require_positive(h.product_activity, where("product activity").c_str());
     require_positive(h.kinetics.exchange_current_density, where("exchange current density").c_str());
-    require_finite(h.kinetics.activation_energy, where("activation energy").c_str());
+    if (!std::isnan(h.kinetics.activation_energy)) {  // NaN: not given (see HalfReaction)
+        require_finite(h.kinetics.activation_energy, where("activation energy").c_str());
+        if (h.kinetics.activation_energy < 0.0)
+            throw Error(ErrorKind::invalid_argument,
+                        where("activation energy") + fmt::format(" {:g} J/mol is negative", h.kinetics.activation_energy));
+    }
     require_positive(h.kinetics.reference_temperature, where("kinetics reference temperature").c_str());
     require_positive(h.kinetics.alpha_forward, where("alpha forward").c_str());
     require_positive(h.kinetics.alpha_backward, where("alpha backward").c_str());
@@ -242,6 +260,18 @@ void check_reaction(const HalfReaction& h, bool anode, std::size_t index) {
         throw Error(ErrorKind::invalid_argument,
                     where("limiting current density") + fmt::format(" {} must be positive (or inf for none)",
                                                                     h.limiting_current_density));
+    if (!h.species.empty()) {
+        double charge = 0.0;
+        for (const auto& term : h.species) {
+            require_finite(term.coefficient, where(("coefficient of " + term.species.name).c_str()).c_str());
+            charge += term.coefficient * term.species.charge;
+        }
+        if (std::fabs(charge + h.electrons) > 1e-9)
+            throw Error(ErrorKind::invalid_argument,
+                        where("species") + fmt::format(": written as a reduction with {} electrons, the charges must "
+                                                       "sum to -{}; they sum to {:g}",
+                                                       h.electrons, h.electrons, charge));
+    }
     require_finite(h.product_molar_mass, where("product molar mass").c_str());
     if (h.product_molar_mass < 0.0)
         throw Error(ErrorKind::invalid_argument,
@@ -264,8 +294,32 @@ double limited_butler_volmer_current(double overpotential, double j0, double alp
     return limited_bv(overpotential, j0, alpha_forward * f, alpha_backward * f, j0 / limiting_current_density).current;
 }
 
+double half_reaction_exchange_current_density(const HalfReaction& h, bool at_anode, double temperature) {
+    const auto& k = h.kinetics;
+    if (std::isnan(k.activation_energy)) {
+        // Known only at the reference temperature: no silent Arrhenius factor of 1 elsewhere.
+        if (std::fabs(temperature - k.reference_temperature) > kReferenceTemperatureTolerance)
+            throw Error(ErrorKind::out_of_range,
+                        fmt::format("custom cell: {} reaction '{}': activation_energy is not given, so its exchange "
+                                    "current density is known only at its reference temperature {:g} K; the cell runs "
+                                    "at {:g} K: give the activation energy (or a reference temperature equal to the "
+                                    "operating one)",
+                                    side_name(at_anode), h.name, k.reference_temperature, temperature));
+        return k.exchange_current_density;
+    }
+    return exchange_current_density(k, temperature);
+}
+
+double half_reaction_enthalpy_per_electron(const HalfReaction& h, double temperature) {
+    if (h.species.empty()) return std::numeric_limits<double>::quiet_NaN();
+    return half_reaction_per_electron(h.species, h.electrons, temperature).enthalpy;
+}
+
 double half_reaction_equilibrium_potential(const HalfReaction& h, bool at_anode, double temperature) {
-    const double e0 = h.standard_potential + h.standard_potential_temperature_coefficient * (temperature - kStandardTemperature);
+    const double e0 = h.species.empty()
+                          ? h.standard_potential +
+                                h.standard_potential_temperature_coefficient * (temperature - kStandardTemperature)
+                          : -half_reaction_per_electron(h.species, h.electrons, temperature).gibbs / kFaraday;
     // a_ox/a_red: the reactant is the oxidized species at the cathode, the reduced one at the anode.
     const double ratio = at_anode ? h.product_activity / h.reactant_activity : h.reactant_activity / h.product_activity;
     return e0 + kGasConstant * temperature / (h.electrons * kFaraday) * std::log(ratio);
@@ -309,6 +363,26 @@ std::unique_ptr<Cell> make_custom_cell(const CustomCellSpec& spec) {
         e.temperature_fit_min > e.temperature_fit_max)
         throw Error(ErrorKind::invalid_argument, "custom cell envelope: a minimum is above its maximum");
     if (!std::isnan(spec.thermoneutral_voltage)) require_finite(spec.thermoneutral_voltage, "custom cell: thermoneutral voltage");
+    // Species data must cover the envelope's temperatures; without species the heat of the cell is
+    // unknown unless the table is water splitting or a thermoneutral voltage is given.
+    bool all_species = true, water_only = true;
+    for (const auto* side : {&spec.anode, &spec.cathode})
+        for (const auto& h : *side) {
+            all_species = all_species && !h.species.empty();
+            water_only = water_only && h.species.empty() && (h.product == "H2" || h.product == "O2");
+            for (const auto& term : h.species)
+                if (term.species.temperature_min > e.temperature_min || term.species.temperature_max < e.temperature_max)
+                    throw Error(ErrorKind::invalid_argument,
+                                fmt::format("custom cell: reaction '{}': the data of species {} ({}) cover "
+                                            "{:g}..{:g} K, not the cell's {:g}..{:g} K",
+                                            h.name, term.species.name, phase_name(term.species.phase),
+                                            term.species.temperature_min, term.species.temperature_max,
+                                            e.temperature_min, e.temperature_max));
+        }
+    if (std::isnan(spec.thermoneutral_voltage) && !all_species && !water_only)
+        throw Error(ErrorKind::invalid_argument,
+                    "custom cell: the reactions have no enthalpy data (species) and the table is not water splitting: "
+                    "give every reaction its species, or the thermoneutral voltage");
     return std::make_unique<CustomCell>(spec);
 }
 

@@ -14,6 +14,7 @@
 
 #include "cells/cell.hpp"
 #include "electrochem/kinetics.hpp"
+#include "thermo/species_table.hpp"
 
 namespace ely {
 
@@ -22,8 +23,14 @@ struct HalfReaction {
     std::string product;  // e.g. "Zn"; "H2", "O2" and "Cl2" also fill the flux arrays
     int electrons = 2;    // n per formula unit of product
     /// E° vs SHE at 298.15 K, V: the reduction potential as tabulated (CRC electrochemical series).
+    /// Used when `species` is empty; with species, E°(T) follows from their data instead.
     double standard_potential = 0.0;
     double standard_potential_temperature_coefficient = 0.0;  // dE°/dT, V/K (0: E° held at its 25 °C value)
+    /// The half-reaction's species written as a reduction, ox + n e⁻ → red (ox negative, red positive
+    /// coefficients; H⁺(aq) where protons take part): E°(T) = −ΔG(T)/(nF) vs SHE and the reaction
+    /// enthalpy for the thermoneutral voltage (thermo/species_table.hpp). Empty: the explicit
+    /// standard_potential above, and no enthalpy.
+    std::vector<SpeciesTerm> species{};
     /// Activities in the Nernst equation E = E° + (RT/nF)·ln(a_ox/a_red), each the product of
     /// its species' activities raised to their stoichiometric coefficients. Reactant: the species
     /// consumed in the electrolysis direction — the oxidized one at the cathode (e.g. Zn²⁺), the
@@ -32,8 +39,10 @@ struct HalfReaction {
     double reactant_activity = 1.0;
     double product_activity = 1.0;
     /// Kinetics in the electrolysis direction of the electrode (alpha_forward: oxidation at the
-    /// anode, reduction at the cathode); j0 on the geometric area, Arrhenius in T.
-    ElectrodeKinetics kinetics{1.0, 0.0, 298.15, 0.5, 0.5};
+    /// anode, reduction at the cathode); j0 on the geometric area, Arrhenius in T. The activation
+    /// energy defaults to NaN, "not given": j0 is then known only at its reference temperature, and
+    /// evaluating the cell at any other temperature is an error naming the reaction (no silent 0).
+    ElectrodeKinetics kinetics{1.0, std::numeric_limits<double>::quiet_NaN(), 298.15, 0.5, 0.5};
     /// Mass-transport limit of the reactant, A/m² (+inf: none). It makes the share of a metal
     /// fall at low ion concentration.
     double limiting_current_density = std::numeric_limits<double>::infinity();
@@ -45,9 +54,11 @@ struct CustomCellSpec {
     std::vector<HalfReaction> cathode;  // at least one
     double area_specific_resistance = 0.0;  // Ω·m², electrolyte + separator + contacts
     Envelope envelope{298.15, 373.15, 0.5e5, 5.0e5, 1.0e4, 298.15, 373.15};
-    /// Thermoneutral voltage to report, V. NaN (the default): the liquid-water (HHV) value when the
-    /// main products are H2 and O2, otherwise 0, meaning unknown — the unit layer's energy balance
-    /// does not use this number.
+    /// Thermoneutral voltage, V. NaN (the default): from the reactions' species, weighted by the
+    /// current shares, E_tn = [Σ_cathode share·ΔH_red − Σ_anode share·ΔH_red]/F (ΔH per electron);
+    /// a table whose reactions all make H2 or O2 and give no species is water splitting with liquid
+    /// water (HHV basis). Any other table without species needs this value (make_custom_cell refuses
+    /// it otherwise): N·I·(V − E_tn) is the stack's heat.
     double thermoneutral_voltage = std::numeric_limits<double>::quiet_NaN();
 };
 
@@ -62,8 +73,16 @@ std::unique_ptr<Cell> make_custom_cell(const CustomCellSpec& spec);
 double limited_butler_volmer_current(double overpotential, double j0, double alpha_forward, double alpha_backward,
                                      double limiting_current_density, double temperature);
 
+/// Exchange current density of a half-reaction at T, A/m²: Arrhenius from its reference value;
+/// an activation energy not given (NaN) is an error at any temperature but the reference one.
+double half_reaction_exchange_current_density(const HalfReaction& reaction, bool at_anode, double temperature);
+
 /// Equilibrium (Nernst) potential of a half-reaction at T vs SHE, V.
 double half_reaction_equilibrium_potential(const HalfReaction& reaction, bool at_anode, double temperature);
+
+/// Enthalpy of a half-reaction with species, per mol of electrons, as a reduction completed with the
+/// standard hydrogen electrode (J/mol); NaN when it has no species.
+double half_reaction_enthalpy_per_electron(const HalfReaction& reaction, double temperature);
 
 /// Product molar rate of reaction k, mol/(m² s): share_k·j/(n_k F).
 double custom_product_rate(const HalfReaction& reaction, double share, double current_density);

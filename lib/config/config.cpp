@@ -15,6 +15,7 @@
 
 #include "cells/custom.hpp"
 #include "config/json_reader.hpp"
+#include "base/excerpt.hpp"
 #include "config/units.hpp"
 #include "base/error.hpp"
 
@@ -115,8 +116,8 @@ using PlantField = Field<PlantDesign>;
 const std::vector<PlantField>& stack_fields() {
     static const std::vector<PlantField> fields = {
         count<PlantDesign>("cells", 1, 10000, ELY_MEMBER(stack.cells), "cells in series per stack").mandatory(),
-        quantity<PlantDesign>("active_area", "m2", 0, 100, ELY_MEMBER(stack.active_area), "active area per cell")
-            .above(0)
+        // 1e-6 m2 (0.01 cm2) is far below a laboratory cell (common practice: lab cells have a few cm2).
+        quantity<PlantDesign>("active_area", "m2", 1e-6, 100, ELY_MEMBER(stack.active_area), "active area per cell")
             .mandatory(),
         count<PlantDesign>("stacks", 1, 1000, ELY_MEMBER(stack.stacks), "identical stacks in parallel"),
     };
@@ -428,7 +429,7 @@ std::string key_list(const std::vector<std::string_view>& keys) {
 }
 
 [[noreturn]] void unknown_key(const std::string& path, std::string_view key, const std::vector<std::string_view>& known) {
-    fail(path, fmt::format("unknown key '{}'; known keys: {}", key, key_list(known)));
+    fail(path, fmt::format("unknown key '{}'; known keys: {}", excerpt(key), key_list(known)));
 }
 
 template <class T>
@@ -452,7 +453,7 @@ E choice(const json::value& v, const E (&options)[N], Name name, const char* wha
         if (s == name(e)) return e;
         names.emplace_back(name(e));
     }
-    fail(path, fmt::format("'{}' is not a {}; known: {}", s, what, key_list(names)));
+    fail(path, fmt::format("'{}' is not a {}; known: {}", excerpt(s), what, key_list(names)));
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -549,7 +550,7 @@ std::vector<HalfReaction> parse_reactions(const json::object& reactions, const c
         if (r.product.empty()) fail(child(element(path, i), "product"), "the product is empty");
         for (const auto& other : out)
             if (other.name == r.name)
-                fail(child(element(path, i), "name"), fmt::format("reaction '{}' appears twice at the {}", r.name, electrode));
+                fail(child(element(path, i), "name"), fmt::format("reaction '{}' appears twice at the {}", excerpt(r.name), electrode));
         out.push_back(std::move(r));
     }
     return out;
@@ -760,20 +761,11 @@ PlantDesign parse_config(std::string_view json_text) {
 }
 
 PlantDesign load_config_file(const std::string& path) {
-    // The path is UTF-8: u8path makes it a wide path on Windows, where a narrow one would be
-    // read in the ANSI code page and names outside it would not open.
-    const std::filesystem::path file = std::filesystem::u8path(path);
-    std::error_code ec;
-    if (std::filesystem::is_directory(file, ec))
-        throw Error(ErrorKind::io, fmt::format("cannot read config file '{}': it is a directory", path));
-    std::ifstream in(file, std::ios::binary);
-    if (!in) throw Error(ErrorKind::io, fmt::format("cannot read config file '{}': {}", path, std::strerror(errno)));
-    std::string text((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
-    if (in.bad()) throw Error(ErrorKind::io, fmt::format("cannot read config file '{}': read error", path));
+    const std::string text = json_input::read_document_file(path);  // regular files of at most 4 MiB
     try {
         return parse_config(text);
     } catch (const Error& e) {
-        throw Error(e.kind(), fmt::format("{}: {}", path, e.what()));
+        throw Error(e.kind(), fmt::format("{}: {}", excerpt(path, 256), e.what()));
     }
 }
 

@@ -2,15 +2,33 @@
 
 #include <algorithm>
 #include <boost/json/basic_parser_impl.hpp>
+#include <cerrno>
+#include <cstring>
 #include <fmt/format.h>
+#include <string>
+#include <unordered_set>
 #include <vector>
 
+#ifdef _WIN32
+#include <filesystem>
+#include <fstream>
+#else
+#include <fcntl.h>
+#include <sys/stat.h>
+#include <unistd.h>
+#endif
+
 #include "base/error.hpp"
+#include "base/excerpt.hpp"
 
 namespace ely::json_input {
 
 [[noreturn]] void fail(const std::string& path, const std::string& message) {
-    throw Error(ErrorKind::config, path + ": " + message);
+    // A JSON string may hold "\u0000": a NUL would end the message where a host reads it as a
+    // C string (what(), ely_last_error), so it is written out.
+    std::string text = path + ": " + message;
+    for (std::size_t i = text.find('\0'); i != std::string::npos; i = text.find('\0', i + 4)) text.replace(i, 1, "\\x00");
+    throw Error(ErrorKind::config, text);
 }
 
 std::string child(const std::string& path, std::string_view key) {
@@ -31,7 +49,7 @@ std::string got(const json::value& v) {
         case json::kind::int64: return std::to_string(v.get_int64());
         case json::kind::uint64: return std::to_string(v.get_uint64());
         case json::kind::double_: return fmt::format("{:g}", v.get_double());
-        case json::kind::string: return fmt::format("a string (\"{}\")", std::string_view(v.get_string()));
+        case json::kind::string: return fmt::format("a string (\"{}\")", excerpt(std::string_view(v.get_string())));
         case json::kind::array: return "an array";
         case json::kind::object: return "an object";
     }
@@ -47,10 +65,11 @@ namespace {
 
 class SyntaxCheck {
 public:
-    static constexpr std::size_t max_array_size = std::size_t(-1);
-    static constexpr std::size_t max_object_size = std::size_t(-1);
-    static constexpr std::size_t max_string_size = std::size_t(-1);
-    static constexpr std::size_t max_key_size = std::size_t(-1);
+    // Boost.JSON stops with array_too_large, object_too_large, ... past these.
+    static constexpr std::size_t max_array_size = kMaxArrayElements;
+    static constexpr std::size_t max_object_size = kMaxObjectMembers;
+    static constexpr std::size_t max_string_size = kMaxStringBytes;
+    static constexpr std::size_t max_key_size = kMaxKeyBytes;
 
     bool on_document_begin(json::error_code&) { return true; }
     bool on_document_end(json::error_code&) { return true; }
@@ -73,12 +92,11 @@ public:
     bool on_key(json::string_view s, std::size_t, json::error_code& ec) {
         key_.append(s.data(), s.size());
         Frame& f = frames_.back();
-        if (std::find(f.keys.begin(), f.keys.end(), key_) != f.keys.end()) {
+        if (!f.keys.insert(key_).second) {
             duplicate_ = key_;
             ec = json::error::syntax;  // any code: parse_json reports the duplicate itself
             return false;
         }
-        f.keys.push_back(key_);
         f.key = std::move(key_);
         f.reading_value = true;
         key_.clear();
@@ -112,7 +130,7 @@ private:
         bool reading_value;  // object: between a key and the end of its value
         std::string key;     // object: the last key
         std::size_t index;   // array: the index of the element being read
-        std::vector<std::string> keys;
+        std::unordered_set<std::string> keys;  // object: the keys so far (a hash set: linear in the members)
     };
 
     bool value_done() {
@@ -148,16 +166,42 @@ std::string position(std::string_view text, std::size_t offset) {
     return fmt::format("line {}, column {}", line, column);
 }
 
+// The limit of kMax* by which the SAX pass stopped, empty if it stopped for another reason.
+std::string limit_crossed(const json::error_code& ec) {
+    if (ec == json::error::array_too_large)
+        return fmt::format("array with more than the limit of {} elements", kMaxArrayElements);
+    if (ec == json::error::object_too_large)
+        return fmt::format("object with more than the limit of {} members", kMaxObjectMembers);
+    if (ec == json::error::string_too_large)
+        return fmt::format("string longer than the limit of {} bytes", kMaxStringBytes);
+    if (ec == json::error::key_too_large) return fmt::format("key longer than the limit of {} bytes", kMaxKeyBytes);
+    if (ec == json::error::too_deep)
+        return fmt::format("arrays and objects nested deeper than the limit of {} levels", kMaxDepth);
+    return {};
+}
+
+[[noreturn]] void fail_io(const std::string& path, const std::string& reason) {
+    throw Error(ErrorKind::io, fmt::format("cannot read config file '{}': {}", excerpt(path, 256), reason));
+}
+
+std::string too_large(unsigned long long size) {
+    return fmt::format("it is {} bytes, more than the limit of {} bytes (4 MiB) for a plant description", size,
+                       kMaxDocumentBytes);
+}
+
 json::parse_options parse_options() {
     json::parse_options options;
     options.allow_comments = true;  // a config is edited by hand: // and /* */ comments are accepted
-    options.max_depth = 32;
+    options.max_depth = kMaxDepth;
     return options;
 }
 
 }  // namespace
 
 json::value parse_json(std::string_view text, json::storage_ptr storage) {
+    if (text.size() > kMaxDocumentBytes)
+        fail("$", fmt::format("the document is {} bytes, more than the limit of {} bytes (4 MiB) for a plant description",
+                              text.size(), kMaxDocumentBytes));
     const auto options = parse_options();
     json::basic_parser<SyntaxCheck> check(options);
     json::error_code ec;
@@ -167,8 +211,9 @@ json::value parse_json(std::string_view text, json::storage_ptr storage) {
              fmt::format("duplicate key '{}' at {}", check.handler().duplicate(), position(text, consumed)));
     }
     if (ec) {
-        fail(check.handler().path(),
-             fmt::format("malformed JSON at {}: {}", position(text, consumed), ec.message()));
+        const std::string limit = limit_crossed(ec);
+        if (!limit.empty()) fail(check.handler().path(), fmt::format("{} at {}", limit, position(text, consumed)));
+        fail(check.handler().path(), fmt::format("malformed JSON at {}: {}", position(text, consumed), ec.message()));
     }
     if (consumed < text.size())
         fail("$", fmt::format("malformed JSON at {}: text after the end of the document", position(text, consumed)));
@@ -176,6 +221,65 @@ json::value parse_json(std::string_view text, json::storage_ptr storage) {
     if (ec) fail("$", fmt::format("malformed JSON: {}", ec.message()));  // not reached: the check passed
     return root;
 }
+
+#ifdef _WIN32
+std::string read_document_file(const std::string& path) {
+    namespace fs = std::filesystem;
+    const fs::path file = fs::u8path(path);  // UTF-8 → the UTF-16 name Windows opens
+    std::error_code ec;
+    const fs::file_status st = fs::status(file, ec);
+    if (ec) fail_io(path, ec.message());
+    if (fs::is_directory(st)) fail_io(path, "it is a directory");
+    if (!fs::is_regular_file(st)) fail_io(path, "it is not a regular file");
+    const auto size = fs::file_size(file, ec);
+    if (ec) fail_io(path, ec.message());
+    if (size > kMaxDocumentBytes) fail_io(path, too_large(size));
+    std::ifstream in(file, std::ios::binary);  // libstdc++ and MSVC open a path with _wfopen
+    if (!in) fail_io(path, std::strerror(errno));
+    std::string text(kMaxDocumentBytes + 1, '\0');
+    in.read(text.data(), static_cast<std::streamsize>(text.size()));
+    if (in.bad()) fail_io(path, "read error");
+    text.resize(static_cast<std::size_t>(in.gcount()));
+    if (text.size() > kMaxDocumentBytes) fail_io(path, too_large(text.size()));  // grew after the check
+    return text;
+}
+#else
+std::string read_document_file(const std::string& path) {
+    // O_NONBLOCK: opening a FIFO for reading must not wait for a writer; it is refused below.
+    const int fd = ::open(path.c_str(), O_RDONLY | O_NONBLOCK | O_CLOEXEC | O_NOCTTY);
+    if (fd < 0) fail_io(path, std::strerror(errno));
+    struct Closer {
+        int fd;
+        ~Closer() { ::close(fd); }
+    } closer{fd};
+    struct stat st {};
+    if (::fstat(fd, &st) != 0) fail_io(path, std::strerror(errno));
+    if (S_ISDIR(st.st_mode)) fail_io(path, "it is a directory");
+    if (S_ISFIFO(st.st_mode)) fail_io(path, "it is a FIFO (named pipe), not a regular file");
+    if (S_ISCHR(st.st_mode) || S_ISBLK(st.st_mode)) fail_io(path, "it is a device, not a regular file");
+    if (!S_ISREG(st.st_mode)) fail_io(path, "it is not a regular file");
+    if (static_cast<unsigned long long>(st.st_size) > kMaxDocumentBytes)
+        fail_io(path, too_large(static_cast<unsigned long long>(st.st_size)));
+    // Read at most one byte past the limit, in case the file grew after fstat.
+    std::string text(static_cast<std::size_t>(st.st_size) + 1, '\0');
+    std::size_t got_bytes = 0;
+    for (;;) {
+        if (got_bytes == text.size()) {
+            if (text.size() > kMaxDocumentBytes) fail_io(path, too_large(text.size()));
+            text.resize(std::min(kMaxDocumentBytes + 1, 2 * text.size()));
+        }
+        const ssize_t n = ::read(fd, text.data() + got_bytes, text.size() - got_bytes);
+        if (n < 0) {
+            if (errno == EINTR) continue;
+            fail_io(path, std::strerror(errno));
+        }
+        if (n == 0) break;
+        got_bytes += static_cast<std::size_t>(n);
+    }
+    text.resize(got_bytes);
+    return text;
+}
+#endif
 
 const json::object& expect_object(const json::value& v, const std::string& path) {
     if (!v.is_object()) fail(path, "expected an object, got " + got(v));

@@ -6,6 +6,7 @@
 #include <fmt/format.h>
 
 #include "base/error.hpp"
+#include "base/excerpt.hpp"
 
 namespace ely {
 namespace {
@@ -89,6 +90,9 @@ constexpr std::string_view kKnownList =
     "m g s A K mol Pa bar atm W Wh J V ohm S C Ah L h min d t degC 1 % wt% mol% vol% ppm; "
     "prefixes n u m c k M G";
 
+// ASCII white space (a value pasted from a spreadsheet may end in a line break).
+bool is_space(char c) { return c == ' ' || c == '\t' || c == '\n' || c == '\r' || c == '\v' || c == '\f'; }
+
 double power_of_ten(int n) {
     // Exact for |n| <= 22 (10^22 < 2^53 · 2^22 is representable); divide for negative n so
     // that "178 um" gives the double nearest to 1.78e-4.
@@ -104,6 +108,29 @@ double scale_by_ten(double value, int n) {
     if (n > 0) return value * power_of_ten(n);
     if (n >= -22) return value / power_of_ten(-n);
     return value * std::pow(10.0, n);
+}
+
+// User text in messages: a unit expression is at most kMaxUnitLength bytes when it is parsed;
+// longer texts (the limit's own message, a whole quantity) are cut.
+std::string shown(std::string_view text) { return excerpt(text, kMaxUnitLength); }
+
+[[noreturn]] void fail_unit(const std::string& message) { throw Error(ErrorKind::config, message); }
+
+// Every intermediate result of the parser stays within these limits, so that the integer
+// arithmetic of multiply() and raise() cannot overflow: |exponent| <= 24 times at most 99
+// in raise() and sums of two in multiply() are far inside int.
+void check_ranges(const Unit& u, std::string_view text) {
+    static constexpr const char* kBase[] = {"m", "kg", "s", "A", "K", "mol"};
+    for (std::size_t i = 0; i < u.dimension.size(); ++i) {
+        if (u.dimension[i] > kMaxUnitExponent || u.dimension[i] < -kMaxUnitExponent)
+            fail_unit(fmt::format("unit '{}' raises {} to the power {}, beyond the limit of {} to {}", shown(text),
+                                  kBase[i], u.dimension[i], -kMaxUnitExponent, kMaxUnitExponent));
+    }
+    if (u.exponent10 > kMaxUnitPowerOfTen || u.exponent10 < -kMaxUnitPowerOfTen)
+        fail_unit(fmt::format("unit '{}' has a factor of 1e{}, beyond the limit of 1e-{} to 1e{}", shown(text),
+                              u.exponent10, kMaxUnitPowerOfTen, kMaxUnitPowerOfTen));
+    if (!std::isfinite(u.numerator) || !std::isfinite(u.denominator))
+        fail_unit(fmt::format("unit '{}' has a conversion factor too large for a double", shown(text)));
 }
 
 Unit multiply(const Unit& a, const Unit& b) {
@@ -133,8 +160,8 @@ Unit raise(const Unit& a, int n) {
 }
 
 std::string quoted_context(std::string_view text, std::string_view part) {
-    if (part == text) return fmt::format("'{}'", text);
-    return fmt::format("'{}' (in '{}')", part, text);
+    if (part == text) return fmt::format("'{}'", shown(text));
+    return fmt::format("'{}' (in '{}')", shown(part), shown(text));
 }
 
 class UnitParser {
@@ -142,6 +169,8 @@ public:
     explicit UnitParser(std::string_view text) : text_(text) {}
 
     Unit parse() {
+        if (text_.size() > kMaxUnitLength)
+            fail(fmt::format("unit '{}' is longer than the limit of {} bytes", shown(text_), kMaxUnitLength));
         skip_space();
         if (pos_ == text_.size()) fail("unit '' is empty");
         Unit u = expression();
@@ -161,6 +190,7 @@ private:
             ++pos_;
             skip_space();
             u = multiply(u, inverse(product()));
+            check_ranges(u, text_);
         }
     }
 
@@ -181,23 +211,34 @@ private:
             }
             skip_space();
             u = multiply(u, power());
+            check_ranges(u, text_);
         }
     }
 
     Unit power() {
         Unit u = atom();
         const int n = exponent();
-        return n == 1 ? u : raise(u, n);
+        if (n == 1) return u;
+        u = raise(u, n);
+        check_ranges(u, text_);
+        return u;
     }
 
     Unit atom() {
         if (at("(")) {
+            // Each level costs a few stack frames: the bound keeps a parse within a small stack
+            // (a worker thread's) whatever the text.
+            if (depth_ == kMaxUnitDepth)
+                fail(fmt::format("unit '{}' nests parentheses deeper than the limit of {} levels", shown(text_),
+                                 kMaxUnitDepth));
+            ++depth_;
             ++pos_;
             skip_space();
             Unit u = expression();
             skip_space();
-            if (!at(")")) fail(fmt::format("unit '{}' has an unclosed '('", text_));
+            if (!at(")")) fail(fmt::format("unit '{}' has an unclosed '('", shown(text_)));
             ++pos_;
+            --depth_;
             return u;
         }
         if (at("1") && !(pos_ + 1 < text_.size() && is_digit(text_[pos_ + 1]))) {
@@ -221,7 +262,7 @@ private:
             if (at("-")) sign = -1, ++pos_;
             else if (at("+")) ++pos_;
             if (pos_ == text_.size() || !is_digit(text_[pos_]))
-                fail(fmt::format("unit '{}' has no exponent after '^'", text_));
+                fail(fmt::format("unit '{}' has no exponent after '^'", shown(text_)));
             return sign * digits();
         }
         if ((at("-") || at("+")) && pos_ + 1 < text_.size() && is_digit(text_[pos_ + 1])) {
@@ -238,10 +279,10 @@ private:
         int value = 0, count = 0, d = 0;
         while ((d = superscript_digit()) >= 0) {
             value = value * 10 + d;
-            if (++count > 2) fail(fmt::format("unit '{}' has an exponent out of range", text_));
+            if (++count > 2) fail(fmt::format("unit '{}' has an exponent out of range", shown(text_)));
         }
         if (count == 0) {
-            if (pos_ != start) fail(fmt::format("unit '{}' has no digit after the superscript sign", text_));
+            if (pos_ != start) fail(fmt::format("unit '{}' has no digit after the superscript sign", shown(text_)));
             return 1;
         }
         return sign * value;
@@ -251,7 +292,7 @@ private:
         int value = 0, count = 0;
         while (pos_ < text_.size() && is_digit(text_[pos_])) {
             value = value * 10 + (text_[pos_++] - '0');
-            if (++count > 2) fail(fmt::format("unit '{}' has an exponent out of range", text_));
+            if (++count > 2) fail(fmt::format("unit '{}' has an exponent out of range", shown(text_)));
         }
         return value;
     }
@@ -298,14 +339,14 @@ private:
             if (name == "Nm" || name == "Sm")
                 fail(fmt::format("unit '{}': normal or standard cubic metres ({}3) depend on a reference "
                                  "state and are not accepted; give the mass rate, e.g. in kg/s or kg/h",
-                                 text_, name));
+                                 shown(text_), name));
             fail(fmt::format("unit {} is not known; known units: {}", quoted_context(text_, name), kKnownList));
         }
         if (found->offset != 0) {
             if (name != text_) {
                 fail(fmt::format("unit '{}': {} stands only on its own as a temperature; use K in "
                                  "compound units and for differences (e.g. 'K/h')",
-                                 text_, found->name));
+                                 shown(text_), found->name));
             }
             offset_ = found->offset;
         }
@@ -323,28 +364,30 @@ private:
     static bool is_digit(char c) { return c >= '0' && c <= '9'; }
     bool at(std::string_view s) const { return text_.compare(pos_, s.size(), s) == 0 && pos_ < text_.size(); }
     void skip_space() {
-        while (pos_ < text_.size() && (text_[pos_] == ' ' || text_[pos_] == '\t')) ++pos_;
+        while (pos_ < text_.size() && is_space(text_[pos_])) ++pos_;
     }
     [[noreturn]] void unexpected() const {
-        fail(fmt::format("unit '{}' has an unexpected '{}' at character {}", text_, text_.substr(pos_, 1), pos_ + 1));
+        fail(fmt::format("unit '{}' has an unexpected '{}' at character {}", shown(text_), shown(text_.substr(pos_, 1)),
+                         pos_ + 1));
     }
     [[noreturn]] static void fail(const std::string& message) { throw Error(ErrorKind::config, message); }
 
     std::string_view text_;
     std::size_t pos_ = 0;
+    int depth_ = 0;  // parentheses open at pos_
     double offset_ = 0;
 };
 
 std::string_view trim(std::string_view s) {
-    while (!s.empty() && (s.front() == ' ' || s.front() == '\t')) s.remove_prefix(1);
-    while (!s.empty() && (s.back() == ' ' || s.back() == '\t')) s.remove_suffix(1);
+    while (!s.empty() && is_space(s.front())) s.remove_prefix(1);
+    while (!s.empty() && is_space(s.back())) s.remove_suffix(1);
     return s;
 }
 
 double apply(double value, const Unit& from, std::string_view from_text, const Unit& to, std::string_view to_text) {
     if (from.dimension != to.dimension) {
         throw Error(ErrorKind::config,
-                    fmt::format("expected a quantity in {}, got '{}' ({} instead of {})", to_text, from_text,
+                    fmt::format("expected a quantity in {}, got '{}' ({} instead of {})", to_text, shown(from_text),
                                 dimension_text(from.dimension), dimension_text(to.dimension)));
     }
     // value_to = (value · f_from + offset) / f_to with f = numerator/denominator · 10^e; the
@@ -431,13 +474,13 @@ double parse_quantity(std::string_view text, std::string_view expected_unit) {
     const auto r = std::from_chars(rest.data(), rest.data() + rest.size(), number);
     if (r.ec != std::errc() || rest.empty() || rest.front() == '+' || rest.front() == '-') {
         if (r.ec == std::errc::result_out_of_range)
-            throw Error(ErrorKind::config, fmt::format("the number in '{}' is out of range", t));
+            throw Error(ErrorKind::config, fmt::format("the number in '{}' is out of range", shown(t)));
         throw Error(ErrorKind::config,
-                    fmt::format("expected a number followed by a unit (e.g. '80 degC'), got '{}'", t));
+                    fmt::format("expected a number followed by a unit (e.g. '80 degC'), got '{}'", shown(t)));
     }
     if (negative) number = -number;
     if (!std::isfinite(number))
-        throw Error(ErrorKind::config, fmt::format("'{}' is not a finite number", t));
+        throw Error(ErrorKind::config, fmt::format("'{}' is not a finite number", shown(t)));
     const auto unit_text = trim(rest.substr(static_cast<std::size_t>(r.ptr - rest.data())));
     if (unit_text.empty()) return number;  // a bare number is already in the expected unit
     Unit to;
@@ -447,14 +490,14 @@ double parse_quantity(std::string_view text, std::string_view expected_unit) {
         // A unit outside the grammar, e.g. "(A/m2)^-n" of an empirical fit: no conversion.
         throw Error(ErrorKind::config, fmt::format("values in '{}' take no unit conversion; give a plain number "
                                                    "in {}, got '{}'",
-                                                   trim(expected_unit), trim(expected_unit), t));
+                                                   trim(expected_unit), trim(expected_unit), shown(t)));
     }
     if (to.offset != 0)
         throw Error(ErrorKind::internal, fmt::format("expected unit '{}' has an offset", expected_unit));
     const Unit from = parse_unit(unit_text);
     const double v = apply(number, from, unit_text, to, trim(expected_unit));
     if (!std::isfinite(v))
-        throw Error(ErrorKind::config, fmt::format("'{}' is out of range in {}", t, trim(expected_unit)));
+        throw Error(ErrorKind::config, fmt::format("'{}' is out of range in {}", shown(t), trim(expected_unit)));
     return v;
 }
 

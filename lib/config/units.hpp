@@ -12,12 +12,24 @@
 // Symbols: m g s A K mol Pa bar W V J ohm Ω S C L l Wh Ah with the prefixes n u µ m c k M G;
 // without prefixes: atm h min d t degC (°C), and the dimensionless 1 % ppm wt% mol% vol%.
 // degC stands only on its own (a temperature, not a difference: use K in compounds).
+//
+// Limits (a unit in a plant description is a few characters; these bound the work and the
+// stack any text can ask for, and every intermediate result of the exponent arithmetic):
+// at most kMaxUnitLength bytes, kMaxUnitDepth levels of parentheses, exponents of the base
+// units within ±kMaxUnitExponent and powers of ten within ±kMaxUnitPowerOfTen. Crossing one
+// is ErrorKind::config naming the limit.
 #include <array>
+#include <cstddef>
 #include <cstdint>
 #include <string>
 #include <string_view>
 
 namespace ely {
+
+inline constexpr std::size_t kMaxUnitLength = 128;
+inline constexpr int kMaxUnitDepth = 16;
+inline constexpr int kMaxUnitExponent = 24;
+inline constexpr int kMaxUnitPowerOfTen = 400;
 
 /// Exponents of the SI base units m, kg, s, A, K, mol.
 using Dimension = std::array<int, 6>;

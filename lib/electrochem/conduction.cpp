@@ -32,14 +32,6 @@ double koh_density(double mass_fraction, double temperature) {
     return base * std::exp(0.86 * mass_fraction);
 }
 
-double koh_molality(double mass_fraction) {
-    require_finite(mass_fraction, "KOH mass fraction");
-    if (!(mass_fraction >= 0.0 && mass_fraction < 1.0))
-        throw Error(ErrorKind::out_of_range,
-                    fmt::format("KOH mass fraction {:g} is outside 0 <= w < 1", mass_fraction));
-    return mass_fraction / (molar_mass::KOH * (1.0 - mass_fraction));
-}
-
 double koh_molarity(double mass_fraction, double temperature) {
     // mol/m³ → mol/L
     return mass_fraction * koh_density(mass_fraction, temperature) / molar_mass::KOH * 1e-3;
@@ -66,9 +58,7 @@ double koh_water_activity_balej(double molality, double temperature) {
 double bruggeman_conductivity(double conductivity, double void_fraction) {
     require_finite(conductivity, "electrolyte conductivity");
     require_finite(void_fraction, "void fraction");
-    if (!(void_fraction >= 0.0 && void_fraction < 1.0))
-        throw Error(ErrorKind::out_of_range,
-                    fmt::format("void fraction {:g} is outside 0 <= epsilon < 1", void_fraction));
+    require_within(void_fraction, 0.0, kBruggemanVoidFractionMax, "gas void fraction", "");
     const double liquid = 1.0 - void_fraction;
     return conductivity * liquid * std::sqrt(liquid);
 }

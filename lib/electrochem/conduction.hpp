@@ -21,9 +21,6 @@ double membrane_conductivity_springer(double water_content, double temperature);
 /// t in °C, w the KOH mass fraction. Accepted for 273.15..373.15 K and 0 <= w <= 0.5.
 double koh_density(double mass_fraction, double temperature);
 
-/// Molality of KOH(aq), mol per kg of water: w / (M_KOH·(1 − w)); 0 <= w < 1.
-double koh_molality(double mass_fraction);
-
 /// Molarity of KOH(aq), mol/L: w·ρ(w, T)/M_KOH / 1000.
 double koh_molarity(double mass_fraction, double temperature);
 
@@ -38,7 +35,8 @@ double koh_conductivity_gilliam(double molarity, double temperature);
 /// Water activity of KOH(aq), Balej, Int. J. Hydrogen Energy 10 (1985) 233:
 /// log10 a_w = −0.02255 m + 0.001434 m² + (1.38 m − 0.9254 m²)/T, m in mol/kg, T in K
 /// (form as used in public model code citing the paper; accepted for 0..18 mol/kg and
-/// 273.15..474 K, the range that code states).
+/// 273.15..474 K, the range that code states). The molality of a mass fraction w is
+/// molality_from_mass_fraction(w, molar_mass::KOH) (electrochem/electrolyte.hpp).
 double koh_water_activity_balej(double molality, double temperature);
 
 // ---------------------------------------------------------------------------------------
@@ -46,7 +44,8 @@ double koh_water_activity_balej(double molality, double temperature);
 // ---------------------------------------------------------------------------------------
 
 /// Bruggeman: σ_eff = σ·(1 − ε)^1.5 for a dispersion of non-conducting bubbles of void
-/// fraction 0 <= ε < 1.
+/// fraction 0 <= ε <= kBruggemanVoidFractionMax (the one limit of every gas-in-liquid gap).
+inline constexpr double kBruggemanVoidFractionMax = 0.9;
 double bruggeman_conductivity(double conductivity, double void_fraction);
 
 /// Void fraction of the gas–electrolyte layer between electrode and separator rising with

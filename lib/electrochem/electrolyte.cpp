@@ -1,8 +1,10 @@
 #include "electrochem/electrolyte.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <fmt/format.h>
 
+#include "electrochem/conduction.hpp"
 #include "electrochem/kinetics.hpp"
 #include "base/check.hpp"
 #include "thermo/constants.hpp"
@@ -118,6 +120,37 @@ ElectrolyteActivity aqueous_salt_activity(AqueousSalt salt, double molality, dou
     return pitzer_activity(pitzer_parameters(salt, temperature), debye_huckel_osmotic_slope(temperature), molality);
 }
 
+double RelativeEnthalpies::apparent(double molality) const {
+    return molality > 0.0 ? solute + water / (molality * molar_mass::H2O) : 0.0;
+}
+
+RelativeEnthalpies aqueous_salt_relative_enthalpies(AqueousSalt salt, double molality, double temperature) {
+    const auto at = [&](double t) { return aqueous_salt_activity(salt, molality, t); };
+    const double t_lo = salt == AqueousSalt::sodium_chloride ? kMollerTmin : kPPTmin;
+    const double t_hi = salt == AqueousSalt::sodium_chloride ? kMollerTmax : kPPTmax;
+    require_within(temperature, t_lo, t_hi, "relative enthalpies: temperature", "K");
+    constexpr double h = 0.01;  // K
+    const double lo = std::max(t_lo, temperature - h), hi = std::min(t_hi, temperature + h);
+    const auto a = at(lo), b = at(hi);
+    const double dln_gamma = (std::log(b.mean_activity_coefficient) - std::log(a.mean_activity_coefficient)) / (hi - lo);
+    const double dln_aw = (std::log(b.water_activity) - std::log(a.water_activity)) / (hi - lo);
+    const double rt2 = kGasConstant * temperature * temperature;
+    return {-2.0 * rt2 * dln_gamma, -rt2 * dln_aw};
+}
+
+ReactionProperties brine_electrolysis_at(double temperature, double nacl_molality, double naoh_molality) {
+    const auto standard = brine_electrolysis(temperature);
+    const auto nacl = aqueous_salt_activity(AqueousSalt::sodium_chloride, nacl_molality, temperature);
+    const auto naoh = aqueous_salt_activity(AqueousSalt::sodium_hydroxide, naoh_molality, temperature);
+    const auto l_nacl = aqueous_salt_relative_enthalpies(AqueousSalt::sodium_chloride, nacl_molality, temperature);
+    const auto l_naoh = aqueous_salt_relative_enthalpies(AqueousSalt::sodium_hydroxide, naoh_molality, temperature);
+    const double dh = standard.enthalpy + 2.0 * l_naoh.solute - 2.0 * l_nacl.solute - 2.0 * l_naoh.water;
+    const double dg = standard.gibbs + kGasConstant * temperature *
+                                           (std::log(naoh.electrolyte_activity) * 2.0 -
+                                            std::log(nacl.electrolyte_activity) * 2.0 - 2.0 * std::log(naoh.water_activity));
+    return {dh, (dh - dg) / temperature, dg, 2};
+}
+
 double molality_from_mass_fraction(double mass_fraction, double molar_mass) {
     require_positive(molar_mass, "molar mass");
     require_finite(mass_fraction, "mass fraction");
@@ -145,8 +178,7 @@ double bubbly_gap_resistance(double gap, double conductivity, double void_fracti
     require_finite(gap, "electrolyte gap");
     if (gap < 0.0) throw Error(ErrorKind::invalid_argument, fmt::format("electrolyte gap {:g} m is negative", gap));
     require_positive(conductivity, "electrolyte conductivity");
-    require_within(void_fraction, 0.0, 0.9, "gas void fraction", "");
-    return gap / (conductivity * std::pow(1.0 - void_fraction, 1.5));
+    return gap / bruggeman_conductivity(conductivity, void_fraction);
 }
 
 }  // namespace ely

@@ -15,6 +15,8 @@
 // Møller, Geochim. Cosmochim. Acta 52 (1988) 821, eq. 13 for A_φ and NaCl (273.15–573.15 K);
 // Pabalan & Pitzer, Geochim. Cosmochim. Acta 51 (1987) 829 for NaOH (298.15–523.15 K).
 // The 25 °C single-salt values of Pitzer & Mayorga (1973), Table I, are kept for checks.
+#include "thermo/reaction.hpp"
+
 namespace ely {
 
 /// Single 1-1 salt parameters of the Pitzer model at one temperature.
@@ -57,6 +59,29 @@ ElectrolyteActivity pitzer_activity(const PitzerSaltParameters& parameters, doub
 
 /// The same with the temperature-dependent parameters and A_φ(T) above.
 ElectrolyteActivity aqueous_salt_activity(AqueousSalt salt, double molality, double temperature);
+
+/// Relative partial molar enthalpies of a 1-1 salt solution against infinite dilution, J/mol:
+/// L̄2 of the salt (per mol of salt) and L̄1 of the water, from the temperature dependence of the
+/// activity model by Gibbs–Helmholtz: L̄2 = −2RT²(∂ln γ±/∂T)_m, L̄1 = −RT²(∂ln a_w/∂T)_m
+/// = 2 m M_w R T² (∂φ/∂T)_m. The heat given off when a solution is diluted, and the heat of
+/// mixing the brine cell's reaction sees at plant concentrations, follow from these. Derivatives by
+/// central differences of ±0.01 K (one-sided at the ends of the fits' temperature ranges).
+struct RelativeEnthalpies {
+    double solute;  // L̄2, J per mol of salt
+    double water;   // L̄1, J per mol of water
+    /// Apparent relative molar enthalpy Φ_L = L̄2 + L̄1/(m M_w), J per mol of salt: the heat given off
+    /// per mol of salt when the solution is diluted without limit (dilution heat = −Φ_L).
+    double apparent(double molality) const;
+};
+RelativeEnthalpies aqueous_salt_relative_enthalpies(AqueousSalt salt, double molality, double temperature);
+
+/// 2 NaCl(anolyte, m_NaCl) + 2 H2O(catholyte) → Cl2 + H2 + 2 NaOH(catholyte, m_NaOH) at T, the gases at
+/// p°, each solution species at its partial molar state in the given solutions (NaCl(aq) and NaOH(aq)
+/// ideal-dilute standard states of thermo/reaction.hpp plus the relative partial molar enthalpies
+/// and the activities above): ΔH = ΔH° + 2 L̄2(NaOH) − 2 L̄2(NaCl) − 2 L̄1(catholyte water),
+/// ΔG = ΔG° + RT ln[a_NaOH²/(a_NaCl² a_w²)], ΔS = (ΔH − ΔG)/T; z = 2. E_tn = ΔH/2F includes the
+/// heats of mixing of the concentrated solutions (the consistent pair of the Nernst voltage).
+ReactionProperties brine_electrolysis_at(double temperature, double nacl_molality, double naoh_molality);
 
 /// Molality (mol per kg of water) of a binary solution of mass fraction w: w/((1 − w)·M).
 double molality_from_mass_fraction(double mass_fraction, double molar_mass);

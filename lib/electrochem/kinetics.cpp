@@ -73,4 +73,11 @@ double concentration_overpotential(double current_density, double limiting_curre
     return -kGasConstant * temperature / (electrons * kFaraday) * std::log1p(-current_density / limiting_current_density);
 }
 
+double product_accumulation_overpotential(double current_density, double product_current_density, double temperature,
+                                          int electrons) {
+    require_positive(product_current_density, "product current density");
+    if (current_density <= 0.0) return 0.0;
+    return kGasConstant * temperature / (electrons * kFaraday) * std::log1p(current_density / product_current_density);
+}
+
 }  // namespace ely

@@ -39,4 +39,11 @@ double tafel_overpotential(double current_density, double j0, double alpha_forwa
 double concentration_overpotential(double current_density, double limiting_current_density, double temperature,
                                    int electrons);
 
+/// Concentration loss of a product gas that accumulates at the electrode, diffusing away against
+/// the reactant: η = (RT/(zF))·ln(1 + j/j_p), with j_p = zF·D·c_p/δ the current density that would
+/// double the product's concentration at the reaction zone (the counterpart of the limiting current
+/// of the reactant). It has no limit; j_p <= 0 is an error.
+double product_accumulation_overpotential(double current_density, double product_current_density, double temperature,
+                                          int electrons);
+
 }  // namespace ely

@@ -22,8 +22,11 @@ inline constexpr double H = 1.008e-3;
 inline constexpr double N = 14.007e-3;
 inline constexpr double O = 15.999e-3;
 inline constexpr double Na = 22.98976928e-3;
+inline constexpr double Mg = 24.305e-3;
+inline constexpr double S = 32.06e-3;
 inline constexpr double Cl = 35.45e-3;
 inline constexpr double K = 39.0983e-3;
+inline constexpr double Zn = 65.38e-3;
 }  // namespace atomic_weight
 
 namespace molar_mass {

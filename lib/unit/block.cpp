@@ -6,6 +6,7 @@
 #include <limits>
 
 #include "base/check.hpp"
+#include "base/excerpt.hpp"
 #include "thermo/constants.hpp"
 #include "thermo/reaction.hpp"
 #include "thermo/species.hpp"
@@ -131,7 +132,7 @@ int32_t Block::find(std::string_view name) const {
         if (name == variable_info(static_cast<Var>(i)).name)
             throw Error(ErrorKind::unknown_name, fmt::format("variable '{}' does not exist for technology '{}'",
                                                              name, technology_name(design_.technology)));
-    throw Error(ErrorKind::unknown_name, fmt::format("unknown variable '{}'", name));
+    throw Error(ErrorKind::unknown_name, fmt::format("unknown variable '{}'", excerpt(name)));
 }
 
 void Block::set(int32_t index, double value) {

@@ -9,6 +9,7 @@
 #include "cells/cell.hpp"
 #include "cells/technologies.hpp"
 #include "electrochem/conduction.hpp"
+#include "electrochem/electrolyte.hpp"
 #include "electrochem/crossover.hpp"
 #include "thermo/constants.hpp"
 #include "base/error.hpp"
@@ -47,12 +48,21 @@ std::vector<std::unique_ptr<Cell>> all_variants() {
 }  // namespace
 
 TEST(AlkalineCell, TypicalVoltageAt04AcmSquared) {
-    // 0.4 A/cm², 80 °C, 30 wt% KOH: 1.8–2.1 V (common practice; IRENA 2020: alkaline 0.2–0.8 A/cm²).
+    // Carmo et al., Int. J. Hydrogen Energy 38 (2013) 4901, Table 1: alkaline cells 1.8-2.4 V at their
+    // nominal 0.2-0.4 A/cm2 and 60-80 C (from memory).
     for (double p : {kAtm, 30e5}) {
         const auto r = alkaline()->evaluate({4000.0, 353.15, p, p});
-        EXPECT_GT(r.voltage, 1.8) << p;
-        EXPECT_LT(r.voltage, 2.1) << p;
+        EXPECT_GE(r.voltage, 1.8) << p;
+        EXPECT_LE(r.voltage, 2.4) << p;
     }
+}
+
+TEST(AlkalineCell, ActivatedNickelCathodeOverpotential) {
+    // Activated (Raney-type) nickel cathodes evolve hydrogen at about 0.1-0.2 V overpotential at 0.3 A/cm2 in
+    // 30 wt% KOH at 80 C (from memory).
+    const double eta = alkaline()->evaluate({3000.0, 353.15, kAtm, kAtm}).activation_cathode;
+    EXPECT_GE(eta, 0.1);
+    EXPECT_LE(eta, 0.2);
 }
 
 TEST(AlkalineCell, ReversibleVoltageUsesWaterActivityOfTheLye) {
@@ -60,35 +70,47 @@ TEST(AlkalineCell, ReversibleVoltageUsesWaterActivityOfTheLye) {
     for (double t : kTemperatures)
         for (const auto& [pa, pc] : kPressures) {
             const auto r = cell->evaluate({4000.0, t, pa, pc});
-            const double a_w = koh_water_activity_balej(koh_molality(0.30), t);
+            const double a_w = koh_water_activity_balej(molality_from_mass_fraction(0.30, molar_mass::KOH), t);
             EXPECT_EQ(r.water_activity_anode, a_w);
             EXPECT_EQ(r.water_activity_cathode, a_w);
             EXPECT_EQ(r.reversible_voltage, reversible_voltage_liquid_water(t, pa, pc, a_w));
             EXPECT_EQ(r.thermoneutral_voltage, thermoneutral_voltage_hhv(t));
             // Less water vapour in the gases and a_w < 1 in the Nernst term: above the pure-water value.
             EXPECT_GT(r.reversible_voltage, reversible_voltage_liquid_water(t, pa, pc, 1.0));
-            // Zero-gap: separator (MacMullin 4 × 500 µm) and 0.1 Ω cm² electrode resistance only.
-            const double sigma = koh_conductivity_gilliam(koh_molarity(0.30, t), t);
-            EXPECT_LT(rel(r.ohmic, 4000.0 * (4.0 * 500e-6 / sigma + 1e-5)), 1e-14);
         }
 }
 
+TEST(AlkalineCell, SeparatorResistanceAgainstItsDataSheet) {
+    // A 500 um polysulfone-zirconia separator has an area resistance of about 0.3 ohm cm2 in 30 wt% KOH at 30 C
+    // (manufacturer's data sheet, from memory). The default separator alone (electrode resistance removed),
+    // zero gap, from the ohmic loss at 0.2 A/cm2: within 0.25-0.35 ohm cm2.
+    const auto r = alkaline({{"electrode_resistance", 0.0}})->evaluate({2000.0, 303.15, kAtm, kAtm});
+    EXPECT_GE(r.ohmic / 2000.0, 0.25e-4);
+    EXPECT_LE(r.ohmic / 2000.0, 0.35e-4);
+}
+
 TEST(AlkalineCell, GapResistanceGrowsWithBubbles) {
-    // With a gap, the Bruggeman-corrected lye resistance rises with the void fraction, which rises
-    // with current density: the ohmic loss per unit current density grows with j.
-    const auto gap = alkaline({{"gap_anode", 2e-3}, {"gap_cathode", 2e-3}});
+    // With a gap, the Bruggeman-corrected lye resistance rises with the void fraction, which rises with
+    // current density: the ohmic loss per unit current density grows with j. Without bubbles the gap adds a
+    // resistance linear in its width: twice the gap, twice the extra resistance.
     const auto zero = alkaline();
+    const auto gap2 = alkaline({{"gap_anode", 1e-3}, {"gap_cathode", 1e-3}});
+    const auto gap4 = alkaline({{"gap_anode", 2e-3}, {"gap_cathode", 2e-3}});
     double previous = 0.0;
     for (double j : kCurrentDensities) {
-        const auto r = gap->evaluate({j, 353.15, kAtm, kAtm});
-        const double sigma = koh_conductivity_gilliam(koh_molarity(0.30, 353.15), 353.15);
-        const double eps = bubble_void_fraction({0.023 * 2.0 / 3.0, 0.3, 0.5}, j);
-        const double expected = j * (4.0 * 500e-6 / sigma + 1e-5 + 4e-3 / bruggeman_conductivity(sigma, eps));
-        EXPECT_LT(rel(r.ohmic, expected), 1e-13);
-        EXPECT_GT(r.ohmic / j, previous);
-        previous = r.ohmic / j;
-        EXPECT_GT(r.ohmic, zero->evaluate({j, 353.15, kAtm, kAtm}).ohmic + j * 4e-3 / sigma);
+        const double extra2 = gap2->evaluate({j, 353.15, kAtm, kAtm}).ohmic - zero->evaluate({j, 353.15, kAtm, kAtm}).ohmic;
+        const double extra4 = gap4->evaluate({j, 353.15, kAtm, kAtm}).ohmic - zero->evaluate({j, 353.15, kAtm, kAtm}).ohmic;
+        EXPECT_NEAR(extra4, 2.0 * extra2, 1e-12 * extra4);
+        EXPECT_GT(extra4 / j, previous);
+        previous = extra4 / j;
     }
+    const auto clear2 = alkaline({{"gap_anode", 1e-3}, {"gap_cathode", 1e-3}, {"bubble_void_coefficient", 0.0}});
+    const auto clear4 = alkaline({{"gap_anode", 2e-3}, {"gap_cathode", 2e-3}, {"bubble_void_coefficient", 0.0}});
+    const double base = zero->evaluate({4000.0, 353.15, kAtm, kAtm}).ohmic;
+    EXPECT_NEAR(clear4->evaluate({4000.0, 353.15, kAtm, kAtm}).ohmic - base,
+                2.0 * (clear2->evaluate({4000.0, 353.15, kAtm, kAtm}).ohmic - base), 1e-12);
+    // Bubbles (Bruggeman) make the gap's resistance larger than the clear lye's.
+    EXPECT_GT(gap4->evaluate({4000.0, 353.15, kAtm, kAtm}).ohmic, clear4->evaluate({4000.0, 353.15, kAtm, kAtm}).ohmic);
 }
 
 TEST(AlkalineCell, VoltagePartsSumExactlyAndElementsBalanceInEveryOption) {
@@ -115,7 +137,6 @@ TEST(AlkalineCell, VoltagePartsSumExactlyAndElementsBalanceInEveryOption) {
                     EXPECT_LT(r.h2_in_o2, 1.0);
                     EXPECT_GE(r.o2_in_h2, 0.0);
                     EXPECT_LT(r.o2_in_h2, 1.0);
-                    EXPECT_LT(rel(r.faraday_efficiency, r.cathode_out[kH2] / (j / (2.0 * kFaraday))), 1e-15);
                 }
 }
 
@@ -125,22 +146,24 @@ TEST(AlkalineCell, VoltageRisesWithCurrentDensityAndFallsWithTemperature) {
                                            {2000.0, 4000.0, 6000.0, 1e4, 1.5e4});
 }
 
-TEST(AlkalineCell, HydrogenInOxygenAtLowLoad) {
-    // Plants report 1–2 % hydrogen in oxygen near 10–20 % load (common practice); the default
-    // effective permeability and supersaturation are set for 80 °C and 0.4 A/cm² nominal: about
-    // 1.5 % at 15 % load and 30 bar, about 1 % at 5 % load and 1 atm.
+TEST(AlkalineCell, HydrogenInOxygenLimitsThePartLoad) {
+    // Haug, PhD thesis, Clausthal 2019: gas purity limits the part load of alkaline electrolysers to about
+    // 10-40 % of nominal. de Groot, Kraakman & Barros, Int. J. Hydrogen Energy 47 (2022) 34773: a minimum load
+    // of 10 % needs the pressure kept below about 8 bar. With the 2 % trip limit (half the 4 % lower
+    // flammability limit; common practice) and 0.4 A/cm2 nominal at 80 C: at 30 bar the lowest load that keeps
+    // H2 in O2 below 2 % lies in 10-40 %; at 8 bar 10 % load stays below it.
     const auto cell = alkaline();
-    const double h15 = cell->evaluate({600.0, 353.15, 30e5, 30e5}).h2_in_o2;  // 15 % load
-    EXPECT_GT(h15, 0.01);
-    EXPECT_LT(h15, 0.02);
-    EXPECT_GT(cell->evaluate({400.0, 353.15, 30e5, 30e5}).h2_in_o2, 0.02);   // 10 % load
-    EXPECT_LT(cell->evaluate({800.0, 353.15, 30e5, 30e5}).h2_in_o2, 0.015);  // 20 % load
-    const double h5_atm = cell->evaluate({200.0, 353.15, kAtm, kAtm}).h2_in_o2;
-    EXPECT_GT(h5_atm, 0.007);
-    EXPECT_LT(h5_atm, 0.015);
-    // Supersaturation off: crossover in proportion to the gas partial pressure alone.
-    const auto plain = alkaline({{"supersaturation_pressure", 0.0}});
-    EXPECT_LT(plain->evaluate({200.0, 353.15, kAtm, kAtm}).h2_in_o2, 0.2 * h5_atm);
+    const auto lowest_load = [&](double p) {
+        double lo = 0.005, hi = 1.0;  // fraction of 0.4 A/cm2; bisect on h2_in_o2 = 2 %
+        for (int i = 0; i < 60; ++i) {
+            const double mid = 0.5 * (lo + hi);
+            (cell->evaluate({mid * 4000.0, 353.15, p, p}).h2_in_o2 > 0.02 ? lo : hi) = mid;
+        }
+        return hi;
+    };
+    EXPECT_GE(lowest_load(30e5), 0.10);
+    EXPECT_LE(lowest_load(30e5), 0.40);
+    EXPECT_LE(lowest_load(8e5), 0.10);
     for (double t : kTemperatures)
         for (const auto& [pa, pc] : kPressures) {
             double previous = 1.0, fe_previous = 0.0;
@@ -153,28 +176,36 @@ TEST(AlkalineCell, HydrogenInOxygenAtLowLoad) {
             }
             EXPECT_GT(fe_previous, 0.999);
         }
+    // Supersaturation off: crossover in proportion to the gas partial pressure alone, much lower at 1 atm.
+    const auto plain = alkaline({{"supersaturation_pressure", 0.0}});
+    EXPECT_LT(plain->evaluate({200.0, 353.15, kAtm, kAtm}).h2_in_o2, 0.2 * cell->evaluate({200.0, 353.15, kAtm, kAtm}).h2_in_o2);
     // Oxygen stays in the hydrogen by default (no recombination on the cathode).
     EXPECT_GT(cell->evaluate({4000.0, 353.15, 30e5, 30e5}).o2_in_h2, 0.0);
 }
 
 TEST(AlkalineCell, UllebergFaradayEfficiencyOption) {
-    // faraday_model 1: the hydrogen delivered follows Ulleberg (2003) exactly, f1 = 250 (mA/cm²)²,
-    // f2 = 0.96 (from memory); the lost current makes no gas; crossover still sets the purities.
+    // faraday_model 1: the hydrogen delivered follows Ulleberg (2003), whose table gives f1 = 150, 200, 250
+    // (mA/cm2)^2 and f2 = 0.990, 0.985, 0.980 at 40, 60, 80 C (from memory). At 100 mA/cm2 [D from the rows]:
+    // 40 C: 1e4/1.015e4 x 0.990 = 0.975369; 60 C: 1e4/1.02e4 x 0.985 = 0.965686; 80 C: 1e4/1.025e4 x 0.98 =
+    // 0.956098.
     const auto cell = alkaline({{"faraday_model", 1}});
+    EXPECT_NEAR(cell->evaluate({1000.0, 313.15, kAtm, kAtm}).faraday_efficiency, 0.975369, 1e-6);
+    EXPECT_NEAR(cell->evaluate({1000.0, 333.15, kAtm, kAtm}).faraday_efficiency, 0.965686, 1e-6);
+    EXPECT_NEAR(cell->evaluate({1000.0, 353.15, kAtm, kAtm}).faraday_efficiency, 0.956098, 1e-6);
+    // Outside the table's 40-80 C the result is flagged as extrapolated.
+    EXPECT_TRUE(cell->evaluate({1000.0, 358.15, kAtm, kAtm}).warnings & kWarnTemperatureExtrapolated);
+    EXPECT_FALSE(cell->evaluate({1000.0, 343.15, kAtm, kAtm}).warnings & kWarnTemperatureExtrapolated);
+    // The lost current bypasses the electrodes without lowering the current they carry: the voltage is the
+    // crossover model's at the same terminal current, while crossover still sets the purities.
     const auto physics = alkaline();
-    for (double j : {200.0, 1000.0, 3000.0, 4000.0, 1e4})
+    for (double j : {100.0, 200.0, 1000.0, 4000.0, 1e4})
         for (double p : {kAtm, 30e5}) {
             const auto r = cell->evaluate({j, 353.15, p, p});
-            EXPECT_LT(rel(r.faraday_efficiency, faraday_efficiency_ulleberg(j, 2.5e4, 0.96)), 1e-12) << j;
             const auto q = physics->evaluate({j, 353.15, p, p});
+            EXPECT_EQ(r.voltage, q.voltage) << j;
             EXPECT_EQ(r.anode_out[kH2], q.anode_out[kH2]);
             EXPECT_LT(r.faraday_efficiency, q.faraday_efficiency);
-            EXPECT_LT(r.voltage, q.voltage);  // electrodes carry only the gas-making current
         }
-    // Ulleberg's points: 20, 100, 300 mA/cm² → 0.5908, 0.9366, 0.9573 [D from f1, f2].
-    EXPECT_NEAR(cell->evaluate({200.0, 353.15, kAtm, kAtm}).faraday_efficiency, 0.590769, 1e-6);
-    EXPECT_NEAR(cell->evaluate({1000.0, 353.15, kAtm, kAtm}).faraday_efficiency, 0.936585, 1e-6);
-    EXPECT_NEAR(cell->evaluate({3000.0, 353.15, kAtm, kAtm}).faraday_efficiency, 0.957341, 1e-6);
 }
 
 TEST(AlkalineCell, ShuntCurrentOptions) {
@@ -187,27 +218,34 @@ TEST(AlkalineCell, ShuntCurrentOptions) {
         EXPECT_NEAR(b.faraday_efficiency, a.faraday_efficiency - 0.03, 1e-12);
         EXPECT_EQ(b.anode_out[kH2], a.anode_out[kH2]);
     }
-    // Resistor network: a shunt current ∝ cell voltage × lye conductivity, nearly independent of
-    // the load, so its share grows as the load falls.
+    // Resistor network: a shunt current ∝ cell voltage × lye conductivity, nearly independent of the load, so
+    // its share grows as the load falls.
     const auto network = alkaline({{"shunt_model", 2}});
-    const double g = shunt_loss_factor(100, 1.25 / 2500.0);
     double previous_loss = 0.0;
     for (double j : {1.5e4, 1e4, 4000.0, 2000.0, 800.0}) {
-        const auto a = none->evaluate({j, 353.15, 16e5, 16e5});
-        const auto b = network->evaluate({j, 353.15, 16e5, 16e5});
-        const double sigma = koh_conductivity_gilliam(koh_molarity(0.30, 353.15), 353.15);
-        const double j_shunt = g * b.voltage * sigma / (100.0 * 2500.0 * 2.5);  // G V/(N R_ch A) [D]
-        const double loss = a.faraday_efficiency - b.faraday_efficiency;
-        EXPECT_LT(rel(loss, j_shunt / j), 1e-11) << j;
+        const double loss = none->evaluate({j, 353.15, 16e5, 16e5}).faraday_efficiency -
+                            network->evaluate({j, 353.15, 16e5, 16e5}).faraday_efficiency;
         EXPECT_GT(loss, previous_loss);
         previous_loss = loss;
     }
+    // Hand calculation for two cells on an ideal manifold (every number shown): cell 0 at electrolyte potential
+    // 0, cell 1 at -V, manifold at -V/2; the port of cell 0 carries V/(2 R), that of cell 1 -V/(2 R); the
+    // electrode current of cell 0 is short by V/(2 R), cell 1 by nothing: the mean lost current is V/(4 R) per
+    // cell, R = (L/A)/sigma. With L/A = 2500 1/m, A = 2.5 m2: lost j = V sigma/(4 x 2500 x 2.5).
+    const auto pair = alkaline({{"shunt_model", 2}, {"shunt_cells", 2}, {"shunt_manifold_length_per_area", 0.0}});
+    const auto b = pair->evaluate({4000.0, 353.15, 16e5, 16e5});
+    const double sigma = koh_conductivity_gilliam(koh_molarity(0.30, 353.15), 353.15);
+    const double lost = none->evaluate({4000.0, 353.15, 16e5, 16e5}).faraday_efficiency - b.faraday_efficiency;
+    EXPECT_NEAR(lost * 4000.0, b.voltage * sigma / (4.0 * 2500.0 * 2.5), 1e-9 * lost * 4000.0);
     // About 0.6 % of 0.4 A/cm² for 100 cells with these manifold proportions [D].
     const double nominal = none->evaluate({4000.0, 353.15, 16e5, 16e5}).faraday_efficiency -
                            network->evaluate({4000.0, 353.15, 16e5, 16e5}).faraday_efficiency;
     EXPECT_GT(nominal, 0.003);
     EXPECT_LT(nominal, 0.02);
     expect_error([] { alkaline({{"shunt_model", 1.5}}); }, ErrorKind::invalid_argument, "shunt_model");
+    // One limit for the network's cell count, the parameter table's (the stack's own limit): 10000 cells.
+    EXPECT_NO_THROW(alkaline({{"shunt_model", 2}, {"shunt_cells", 10000}}));
+    expect_error([] { alkaline({{"shunt_cells", 10001}}); }, ErrorKind::out_of_range, "10000");
 }
 
 TEST(AlkalineCell, ErrorsNameTheLimit) {

@@ -69,24 +69,23 @@ TEST(Brine, ReversibleVoltageAtPlantConditions) {
         }
 }
 
-TEST(Brine, ReversibleVoltageIsNernstWithPitzerActivities) {
-    // Rebuilt from its parts: wet-gas partial pressures over each side's water activity, the
-    // anode gas diluted by the O2 of the side reaction, Pitzer activities of NaCl and NaOH.
-    auto cell = brine_cell();
-    const double t = 358.15, pa = 1.3e5, pc = 1.4e5;
-    const auto r = cell->evaluate({5000.0, t, pa, pc});
-    const auto nacl = aqueous_salt_activity(AqueousSalt::sodium_chloride, 3.8, t);
-    const auto naoh =
-        aqueous_salt_activity(AqueousSalt::sodium_hydroxide, molality_from_mass_fraction(0.32, molar_mass::NaOH), t);
-    const double ce = r.caustic_efficiency;
-    const double p_sat = water_saturation_pressure(t);
-    const double p_cl2 = 2 * ce / (1 + ce) * (pa - nacl.water_activity * p_sat);
-    const double p_h2 = pc - naoh.water_activity * p_sat;
-    const double e = reversible_voltage_brine(t, p_cl2, p_h2, naoh.electrolyte_activity, nacl.electrolyte_activity,
-                                              naoh.water_activity);
-    EXPECT_NEAR(r.reversible_voltage, e, 1e-13);
-    EXPECT_DOUBLE_EQ(r.water_activity_anode, nacl.water_activity);
-    EXPECT_DOUBLE_EQ(r.water_activity_cathode, naoh.water_activity);
+TEST(Brine, ThermoneutralVoltageIsGibbsHelmholtzOfTheNernstVoltage) {
+    // At fixed solution compositions and gas pressures (p°), ΔH = −T² ∂(ΔG/T)/∂T: E_tn = E − T dE/dT. The cell
+    // computes E_tn from the relative partial molar enthalpies of the solutions and E from their activities;
+    // the identity ties the two together (a central difference of the whole Nernst voltage).
+    for (double t : {333.15, 353.15, 363.15}) {
+        const double m_nacl = 3.8, m_naoh = molality_from_mass_fraction(0.32, molar_mass::NaOH);
+        const auto e = [&](double tk) {
+            const auto a = aqueous_salt_activity(AqueousSalt::sodium_chloride, m_nacl, tk);
+            const auto c = aqueous_salt_activity(AqueousSalt::sodium_hydroxide, m_naoh, tk);
+            return reversible_voltage_brine(tk, kStandardPressure, kStandardPressure, c.electrolyte_activity,
+                                            a.electrolyte_activity, c.water_activity);
+        };
+        const double d = 0.01;
+        const double gibbs_helmholtz = e(t) - t * (e(t + d) - e(t - d)) / (2.0 * d);
+        EXPECT_NEAR(thermoneutral_voltage(brine_electrolysis_at(t, m_nacl, m_naoh)), gibbs_helmholtz, 2e-5) << t;
+        EXPECT_NEAR(reversible_voltage_standard(brine_electrolysis_at(t, m_nacl, m_naoh)), e(t), 1e-9) << t;
+    }
 }
 
 TEST(Brine, ReversibleVoltageFollowsNernstWithConcentrations) {
@@ -108,15 +107,15 @@ TEST(Brine, ReversibleVoltageFollowsNernstWithConcentrations) {
 }
 
 TEST(Brine, CellVoltageAndEfficiencyAtPlantConditions) {
-    // O'Brien, Bommaraju & Hine, Handbook of Chlor-Alkali Technology (2005), from memory / common
-    // practice: membrane cells run at about 2.9–3.2 V at 4–6 kA/m², 90 °C, 32 wt % NaOH, with a
-    // caustic current efficiency of 95–97 %.
+    // O'Brien, Bommaraju & Hine, Handbook of Chlor-Alkali Technology (2005), from memory: membrane cells run
+    // at about 2.9–3.1 V at 4–6 kA/m², 90 °C, 32 wt % NaOH, with a caustic current efficiency of 95–97 %.
+    // Checked at the usual 1.2 bar absolute (each 0.1 bar moves the voltage by about 5 mV).
     auto cell = brine_cell();
     for (double j : {4000.0, 5000.0, 6000.0})
-        for (double p : {1.0e5, 1.2e5, 1.5e5}) {
+        for (double p : {1.2e5}) {
             const auto r = cell->evaluate(point(j, 363.15, p));
-            EXPECT_GT(r.voltage, 2.9) << j << " A/m2, " << p << " Pa";
-            EXPECT_LT(r.voltage, 3.2) << j << " A/m2, " << p << " Pa";
+            EXPECT_GE(r.voltage, 2.9) << j << " A/m2, " << p << " Pa";
+            EXPECT_LE(r.voltage, 3.1) << j << " A/m2, " << p << " Pa";
             EXPECT_GE(r.caustic_efficiency, 0.95);
             EXPECT_LE(r.caustic_efficiency, 0.97);
             EXPECT_EQ(r.chlorine_efficiency, r.caustic_efficiency);
@@ -127,10 +126,15 @@ TEST(Brine, CellVoltageAndEfficiencyAtPlantConditions) {
         }
 }
 
-TEST(Brine, ThermoneutralVoltageFromReactionEnthalpy) {
+TEST(Brine, ThermoneutralVoltageIncludesTheHeatsOfMixing) {
+    // At plant concentrations the heats of mixing of the concentrated caustic and brine raise E_tn well above
+    // its standard-state value, and above the reversible voltage (at standard state E_tn sat below it).
     auto cell = brine_cell();
-    for (double t : {333.15, 353.15, 368.15})
-        EXPECT_EQ(cell->evaluate(point(3000.0, t)).thermoneutral_voltage, thermoneutral_voltage(brine_electrolysis(t)));
+    for (double t : {333.15, 353.15, 368.15}) {
+        const auto r = cell->evaluate(point(3000.0, t));
+        EXPECT_GT(r.thermoneutral_voltage, thermoneutral_voltage(brine_electrolysis(t)) + 0.1) << t;
+        EXPECT_GT(r.thermoneutral_voltage, r.reversible_voltage) << t;
+    }
 }
 
 TEST(Brine, CausticEfficiencyFallsWithCausticStrength) {

@@ -65,9 +65,9 @@ std::string pem_with(const std::string& extra) {
 // electrochemical series (1.229 V and 0 V vs SHE at 25 °C).
 const char* kWaterReactions = R"("reactions": {
     "anode": [ { "name": "oxygen evolution", "product": "O2", "electrons": 4, "standard_potential": 1.229,
-                 "exchange_current_density": 1e-3, "product_molar_mass": 0.032 } ],
+                 "exchange_current_density": 1e-3, "activation_energy": 60e3, "product_molar_mass": 0.032 } ],
     "cathode": [ { "name": "hydrogen evolution", "product": "H2", "electrons": 2, "standard_potential": 0,
-                   "exchange_current_density": 10, "product_molar_mass": 0.002016 } ] })";
+                   "exchange_current_density": 10, "activation_energy": 16e3, "product_molar_mass": 0.002016 } ] })";
 
 std::string custom_minimal(const std::string& extra = "") {
     return std::string(R"({ "technology": "custom", )") + kMinimalTail + ", " + kWaterReactions +
@@ -451,8 +451,9 @@ TEST(Config, OutOfRange) {
     expect_config_error(stack(R"("cells": 1e300, "active_area": 0.1)"), "$.stack.cells", "above the upper limit 10000");
     expect_config_error(stack(R"("cells": 10, "active_area": 0.1, "stacks": 1001)"), "$.stack.stacks",
                         "above the upper limit 1000");
-    expect_config_error(stack(R"("cells": 10, "active_area": 0)"), "$.stack.active_area", "0 m2 must be above 0 m2");
-    expect_config_error(stack(R"("cells": 10, "active_area": -0.1)"), "$.stack.active_area", "must be above 0 m2");
+    expect_config_error(stack(R"("cells": 10, "active_area": 0)"), "$.stack.active_area", "below the lower limit 1e-06 m2");
+    expect_config_error(stack(R"("cells": 10, "active_area": -0.1)"), "$.stack.active_area", "below the lower limit");
+    expect_config_error(stack(R"("cells": 10, "active_area": 5e-324)"), "$.stack.active_area", "below the lower limit");
     expect_config_error(stack(R"("cells": 10, "active_area": 1e400)"), "$.stack.active_area", "not a finite number");
     expect_config_error(pem_with(R"("plant": { "limits": { "min_load_fraction": 1.5 } })"),
                         "$.plant.limits.min_load_fraction", "1.5 is above the upper limit 1");

@@ -34,24 +34,44 @@ const std::pair<double, double> kPressures[] = {{kAtm, kAtm}, {kAtm, 30e5}, {10e
 }  // namespace
 
 TEST(PemCell, TypicalVoltageAt2AcmSquared) {
-    // 2 A/cm², 80 °C, 30 bar cathode, atmospheric anode: 1.8–2.0 V (common practice; IRENA 2020
-    // ranges for PEM stacks at 1–3 A/cm²).
-    const auto r = pem()->evaluate({2e4, 353.15, kAtm, 30e5});
-    EXPECT_GT(r.voltage, 1.8);
-    EXPECT_LT(r.voltage, 2.0);
-    EXPECT_EQ(r.warnings, 0u);
+    // State-of-the-art PEM cells: 1.75-2.20 V over 0.6-10 A/cm2 at 50-80 C and < 30 bar (Carmo et al.,
+    // Int. J. Hydrogen Energy 38 (2013) 4901, Table 1, as reproduced in a stored encyclopedia page); checked
+    // at the nominal 1-2 A/cm2 (a cell at 0.6 A/cm2 and 80 C runs below the band's floor).
+    for (double j : {1e4, 1.5e4, 2e4})
+        for (double t : {323.15, 353.15}) {
+            const auto r = pem()->evaluate({j, t, kAtm, 30e5});
+            EXPECT_GE(r.voltage, 1.75) << j << " A/m2 " << t << " K";
+            EXPECT_LE(r.voltage, 2.20) << j << " A/m2 " << t << " K";
+            EXPECT_EQ(r.warnings & kWarnNearLimitingCurrent, 0u);
+        }
 }
 
-TEST(PemCell, ReversibleThermoneutralAndOhmicParts) {
+TEST(PemCell, MembraneResistanceAgainstMeasuredNafion117) {
+    // Slade et al., J. Electrochem. Soc. 149 (2002) A1556: a 178 um extruded 1100 EW membrane has an area
+    // resistance of 0.16 ohm cm2 at 298 K (ex situ, 1 M H2SO4). The default membrane alone (contact resistance
+    // removed) at 298.15 K, from its ohmic loss at 1 A/cm2: within 15 %.
+    const auto r = pem({{"contact_resistance", 0.0}})->evaluate({1e4, 298.15, kAtm, kAtm});
+    EXPECT_NEAR(r.ohmic / 1e4, 0.16e-4, 0.15 * 0.16e-4);
+    // In a stack the cell adds plate, transport-layer and contact resistances: about 0.2 ohm cm2 at 80 C for
+    // a 178 um membrane (from memory).
+    const auto stack = pem()->evaluate({1e4, 353.15, kAtm, kAtm});
+    EXPECT_NEAR(stack.ohmic / 1e4, 0.2e-4, 0.02e-4);
+}
+
+TEST(PemCell, HydrogenEvolutionOverpotentialIsSmall) {
+    // Pt/C hydrogen evolution is fast: about 10 mV at 2 A/cm2 in a practical cathode (from memory).
+    const auto r = pem()->evaluate({2e4, 353.15, kAtm, 30e5});
+    EXPECT_GT(r.activation_cathode, 0.002);
+    EXPECT_LT(r.activation_cathode, 0.015);
+}
+
+TEST(PemCell, ReversibleVoltageIsTheWetGasNernstVoltage) {
     const auto cell = pem();
     for (double t : kTemperatures)
         for (const auto& [pa, pc] : kPressures) {
             const auto r = cell->evaluate({1e4, t, pa, pc});
             EXPECT_EQ(r.reversible_voltage, reversible_voltage_liquid_water(t, pa, pc, 1.0));
             EXPECT_EQ(r.thermoneutral_voltage, thermoneutral_voltage_hhv(t));
-            // Springer conductivity at the default λ = 21 and 177.8 µm plus 0.05 Ω cm² contact.
-            const double expected = 1e4 * (177.8e-6 / membrane_conductivity_springer(21.0, t) + 5e-6);
-            EXPECT_LT(rel(r.ohmic, expected), 1e-14);
             EXPECT_TRUE(r.gases_saturated);
             EXPECT_EQ(r.water_activity_anode, 1.0);
             EXPECT_EQ(r.water_activity_cathode, 1.0);
@@ -86,35 +106,72 @@ TEST(PemCell, CrossoverPurityAndFaradayEfficiency) {
     const auto cell = pem();
     for (double t : kTemperatures)
         for (const auto& [pa, pc] : kPressures) {
-            double h2_in_o2_previous = 1.0, fe_previous = 0.0;
+            double fe_previous = 0.0;
             for (double j : kCurrentDensities) {
                 const auto r = cell->evaluate({j, t, pa, pc});
-                // Hydrogen in oxygen rises as the load falls; Faraday efficiency rises with load.
-                EXPECT_LT(r.h2_in_o2, h2_in_o2_previous);
+                // Faraday efficiency rises with load; purities stay physical.
                 EXPECT_GT(r.faraday_efficiency, fe_previous);
                 EXPECT_GT(r.faraday_efficiency, 0.0);
                 EXPECT_LE(r.faraday_efficiency, 1.0);
-                EXPECT_GE(r.h2_in_o2, 0.0);
+                EXPECT_GT(r.h2_in_o2, 0.0);
                 EXPECT_LT(r.h2_in_o2, 1.0);
                 EXPECT_GE(r.o2_in_h2, 0.0);
                 EXPECT_LT(r.o2_in_h2, 1.0);
-                h2_in_o2_previous = r.h2_in_o2;
                 fe_previous = r.faraday_efficiency;
-                // Faraday efficiency is the hydrogen leaving at the cathode over j/(2F).
-                EXPECT_LT(rel(r.faraday_efficiency, r.cathode_out[kH2] / (j / (2.0 * kFaraday))), 1e-15);
             }
-            EXPECT_GT(fe_previous, 0.99);  // → 1 at high load
+            EXPECT_GT(fe_previous, 0.97);
         }
-    // Differential pressure: several per cent of hydrogen in oxygen at 10 % load of 2 A/cm²
-    // (the known limit of differential-pressure PEM operation without recombiners; common practice).
-    const auto low = cell->evaluate({2000.0, 353.15, kAtm, 30e5});
-    EXPECT_GT(low.h2_in_o2, 0.02);
-    EXPECT_LT(low.h2_in_o2, 0.1);
+}
+
+TEST(PemCell, HydrogenPermeabilityOfTheMembrane) {
+    // Trinke et al., J. Electrochem. Soc. 163 (2016) F3164: diffusive hydrogen permeability 2.95e-14 mol/(m s Pa)
+    // at 60 C, measured in an electrolysis cell. The default at 60 C, from the crossover flux at open-circuit
+    // conditions (supersaturation off, no pressure difference): N = P p_H2/delta.
+    const auto cell = pem({{"h2_supersaturation_coefficient", 0.0}});
+    const double t = 333.15, p = 10e5;
+    const auto r = cell->evaluate({2e4, t, p, p});
+    const double p_h2 = p - 19946.4;  // IAPWS-IF97 saturation pressure at 60 C: 19.946 kPa (rounded)
+    EXPECT_NEAR(r.anode_out[kH2] * 177.8e-6 / p_h2, 2.95e-14, 0.005 * 2.95e-14);
+}
+
+TEST(PemCell, HydrogenCrossoverRisesLinearlyWithCurrentDensity) {
+    // Trinke et al., Int. J. Hydrogen Energy 42 (2017) 14355: the hydrogen permeation rises linearly with the
+    // current density (supersaturation of dissolved hydrogen in the cathode catalyst layer).
+    const auto cell = pem();
+    for (const auto& [pa, pc] : kPressures) {
+        const double n1 = cell->evaluate({5000.0, 343.15, pa, pc}).anode_out[kH2];
+        const double n2 = cell->evaluate({1e4, 343.15, pa, pc}).anode_out[kH2];
+        const double n3 = cell->evaluate({1.5e4, 343.15, pa, pc}).anode_out[kH2];
+        EXPECT_GT(n2, n1);
+        EXPECT_NEAR(n3 - n2, n2 - n1, 1e-9 * n3);  // equal steps: a straight line
+    }
+    // Trinke et al., J. Electrochem. Soc. 165 (2018) F502 (Nafion 117, 60 C): at 1 A/cm2 and atmospheric
+    // pressure the supersaturation carries 98 % of the permeation flux.
+    const auto with = pem()->evaluate({1e4, 333.15, kAtm, kAtm});
+    const auto without = pem({{"h2_supersaturation_coefficient", 0.0}})->evaluate({1e4, 333.15, kAtm, kAtm});
+    EXPECT_NEAR(1.0 - without.anode_out[kH2] / with.anode_out[kH2], 0.98, 0.005);
+}
+
+TEST(PemCell, DifferentialPressureBringsTheAnodeGasNearTheFlammabilityLimit) {
+    // Trinke et al. 2017: high cathode pressures bring the hydrogen in the anode gas close to the lower
+    // explosion limit (4 % in oxygen); with 30 bar on the cathode the default cell passes the common 2 % trip
+    // limit (half the limit; common practice) at every load.
+    const auto cell = pem();
+    for (double j : {5000.0, 1e4, 2e4}) EXPECT_GT(cell->evaluate({j, 353.15, kAtm, 30e5}).h2_in_o2, 0.02) << j;
+    // A recombination catalyst at the anode burns most of it; the Faraday efficiency does not change (the
+    // hydrogen is lost from the product either way) and the oxygen it burns is half the hydrogen.
+    const auto base = cell->evaluate({1e4, 353.15, kAtm, 30e5});
+    const auto rec = pem({{"h2_recombination_fraction_anode", 0.9}})->evaluate({1e4, 353.15, kAtm, 30e5});
+    EXPECT_LT(rec.h2_in_o2, 0.2 * base.h2_in_o2);
+    EXPECT_DOUBLE_EQ(rec.faraday_efficiency, base.faraday_efficiency);
+    EXPECT_NEAR(base.anode_out[kO2] - rec.anode_out[kO2], 0.5 * (base.anode_out[kH2] - rec.anode_out[kH2]),
+                1e-12 * base.anode_out[kO2]);
 }
 
 TEST(PemCell, ElementBalancesClose) {
     for (double recombination : {0.0, 0.4, 1.0}) {
-        const auto cell = pem({{"o2_recombination_fraction", recombination}});
+        const auto cell = pem({{"o2_recombination_fraction", recombination},
+                               {"h2_recombination_fraction_anode", 1.0 - recombination}});
         for (double t : kTemperatures)
             for (double j : kCurrentDensities)
                 for (const auto& [pa, pc] : kPressures) {
@@ -148,19 +205,22 @@ TEST(PemCell, OxygenRecombinationAndDarcyCrossover) {
 }
 
 TEST(PemCell, ElectroosmoticDrag) {
-    // water_drag = n_d·j/F with the default n_d = 2.5 (Zawodzinski et al. 1993; from memory).
+    // Zawodzinski et al., J. Electrochem. Soc. 140 (1993) 1981: 2.5 H2O per H+ for a liquid-equilibrated
+    // membrane (from memory). Two protons make one hydrogen molecule: 5 mol of water per mol of hydrogen
+    // formed at the cathode, j/2F.
     const auto r = pem()->evaluate({2e4, 353.15, kAtm, 30e5});
-    EXPECT_LT(rel(r.water_drag, 2.5 * 2e4 / kFaraday), 1e-15);
+    EXPECT_NEAR(r.water_drag / (2e4 / (2.0 * kFaraday)), 5.0, 1e-12);
 }
 
 TEST(PemCell, TafelOptionMatchesButlerVolmerAtHighOverpotential) {
-    // The anode runs at j/j0 ~ 1e7: Tafel and Butler–Volmer agree far better than 1 mV.
+    // The anode runs at j/j0 ~ 1e7: Tafel and Butler-Volmer agree far better than 1 mV.
     const auto bv = pem()->evaluate({2e4, 353.15, kAtm, 30e5});
     const auto tafel = pem({{"kinetics_model", 1.0}})->evaluate({2e4, 353.15, kAtm, 30e5});
     EXPECT_LT(std::fabs(bv.activation_anode - tafel.activation_anode), 1e-3);
-    // The cathode (j/j0 = 2; at T = T_ref = 353.15 K, j0 = its reference value) follows the
-    // Tafel form exactly when it is selected.
-    EXPECT_EQ(tafel.activation_cathode, tafel_overpotential(2e4, 1e4, 0.5, 353.15));
+    // Tafel slope per decade 2.303 RT/(alpha F) (PHYSICS.md): the anode's alpha 1.5 at 80 C gives
+    // 2.302585 x 8.314462618 x 353.15/(1.5 x 96485.33212) = 46.71 mV per decade [D].
+    const auto decade = pem({{"kinetics_model", 1.0}})->evaluate({2e3, 353.15, kAtm, 30e5});
+    EXPECT_NEAR(tafel.activation_anode - decade.activation_anode, 0.046710, 1e-5);
 }
 
 TEST(PemCell, OpenCircuit) {
@@ -184,7 +244,11 @@ TEST(PemCell, ErrorsOutsideEnvelopeNameTheLimit) {
     expect_error([&] { cell->evaluate({-1.0, 353.15, kAtm, kAtm}); }, ErrorKind::out_of_range, "current density");
     expect_error([&] { cell->evaluate({1e4, std::nan(""), kAtm, kAtm}); }, ErrorKind::invalid_argument, "temperature");
     // Below the minimum load the crossover exceeds production: an error naming the minimum.
-    expect_error([&] { cell->evaluate({20.0, 353.15, kAtm, 30e5}); }, ErrorKind::out_of_range, "minimum");
+    const double j_min = cell->current_density_minimum({0.0, 353.15, kAtm, 30e5});
+    expect_error([&] { cell->evaluate({0.9 * j_min, 353.15, kAtm, 30e5}); }, ErrorKind::out_of_range, "minimum");
+    // Just above it the hydrogen leaving the cathode is (nearly) nothing: the minimum is where production
+    // equals crossover.
+    EXPECT_LT(cell->evaluate({1.0001 * j_min, 353.15, kAtm, 30e5}).faraday_efficiency, 1e-3);
     // A soft limit only warns.
     EXPECT_TRUE(cell->evaluate({1e4, 368.15, kAtm, kAtm}).warnings & kWarnTemperatureExtrapolated);
 }

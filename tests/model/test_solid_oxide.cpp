@@ -41,58 +41,62 @@ const std::pair<double, double> kPressures[] = {{kAtm, kAtm}, {5e5, 5e5}, {kAtm,
 }  // namespace
 
 TEST(SolidOxideCell, OpenCircuitVoltageAgainstJanaf) {
-    // 800 °C, x_H2O = x_H2 = 0.5, air (x_O2 = 0.21) at 1 atm:
-    // OCV = E°(T) + RT/2F·ln(x_H2·(x_O2·p/p°)^½/x_H2O) = 0.97704 − 0.03578 = 0.94126 V [D].
-    const double t = 1073.15;
-    const double expected =
-        janaf_standard_voltage(t) +
-        kGasConstant * t / (2.0 * kFaraday) * std::log(0.5 * std::sqrt(0.21 * kAtm / kStandardPressure) / 0.5);
-    EXPECT_NEAR(expected, 0.94128, 1e-4);
-    EXPECT_NEAR(reversible_voltage_steam(t, 0.5 * kAtm, 0.5 * kAtm, 0.21 * kAtm), expected, 1e-3);
-    // The cell at the same mean cathode composition (x_in = 0.625, U = 0.4: mean x_H2O = 0.5) with
-    // its pure-oxygen sweep at 1 atm: E° + RT/2F·ln((p/p°)^½) [D].
-    const auto r = soec({{"steam_inlet_fraction", 0.625}, {"steam_utilisation", 0.4}})->evaluate({0.0, t, kAtm, kAtm});
-    const double expected_o2 =
-        janaf_standard_voltage(t) + kGasConstant * t / (2.0 * kFaraday) * 0.5 * std::log(kAtm / kStandardPressure);
-    EXPECT_NEAR(r.reversible_voltage, expected_o2, 1e-3);
-    EXPECT_EQ(r.voltage, r.reversible_voltage);
-    // Across the hard envelope the Shomate-based E° follows JANAF within 1 mV.
+    // At p° and equal partial pressures the Nernst terms vanish: the open-circuit voltage is E°(T), which
+    // follows NIST-JANAF within 1 mV across the hard envelope.
     for (double tk : {900.0, 1000.0, 1100.0})
         EXPECT_NEAR(reversible_voltage_steam(tk, kStandardPressure, kStandardPressure, kStandardPressure),
                     janaf_standard_voltage(tk), 1e-3)
             << tk;
+    // The cell at open circuit reports its reversible voltage, and pure oxygen at 1 atm on the oxygen electrode
+    // sits above an air sweep: E(O2) − E(air) = (RT/4F) ln(1/0.21) > 0.
+    const auto o2 = soec()->evaluate({0.0, 1073.15, kAtm, kAtm});
+    const auto air = soec({{"oxygen_electrode_o2_fraction", 0.21}})->evaluate({0.0, 1073.15, kAtm, kAtm});
+    EXPECT_EQ(o2.voltage, o2.reversible_voltage);
+    EXPECT_GT(o2.reversible_voltage - air.reversible_voltage, 0.030);  // 35.8 mV at 800 C [D]
+    EXPECT_LT(o2.reversible_voltage - air.reversible_voltage, 0.040);
 }
 
-TEST(SolidOxideCell, ReversibleVoltageAtTheMeanComposition) {
-    // Arithmetic mean of inlet and outlet: x_H2O = x_in(1 − U/2), x_H2 = 1 − x_H2O; O2 at p_anode.
+TEST(SolidOxideCell, ReversibleVoltageBetweenInletAndOutlet) {
+    // The Nernst voltage at the mean cathode composition lies between the voltages of the inlet gas and of
+    // the outlet gas (x_H2O,out = x_in (1 − U), one H2 per H2O reacted).
     for (double u : {0.3, 0.5, 0.7, 0.9}) {
         const auto cell = soec({{"steam_utilisation", u}});
         for (double t : kTemperatures)
             for (const auto& [pa, pc] : kPressures) {
                 const auto r = cell->evaluate({5000.0, t, pa, pc});
-                const double x_steam = 0.9 * (1.0 - 0.5 * u);
-                EXPECT_EQ(r.reversible_voltage, reversible_voltage_steam(t, pc * (1.0 - x_steam), pc * x_steam, pa));
+                const double in = reversible_voltage_steam(t, pc * 0.1, pc * 0.9, pa);
+                const double out = reversible_voltage_steam(t, pc * (1.0 - 0.9 * (1.0 - u)), pc * 0.9 * (1.0 - u), pa);
+                EXPECT_GT(r.reversible_voltage, in);
+                EXPECT_LT(r.reversible_voltage, out);
                 EXPECT_EQ(r.thermoneutral_voltage, thermoneutral_voltage_lhv(t));
             }
     }
-    // More conversion, more hydrogen in the mean gas: higher Nernst voltage.
-    EXPECT_GT(soec({{"steam_utilisation", 0.9}})->evaluate({0.0, 1073.15, kAtm, kAtm}).reversible_voltage,
-              soec({{"steam_utilisation", 0.3}})->evaluate({0.0, 1073.15, kAtm, kAtm}).reversible_voltage);
     // Thermoneutral voltage in steam ≈ 1.28–1.29 V (REFERENCES.md [D]).
     EXPECT_GT(thermoneutral_voltage_lhv(1073.15), 1.28);
     EXPECT_LT(thermoneutral_voltage_lhv(1073.15), 1.295);
 }
 
-TEST(SolidOxideCell, TypicalVoltageAt05AcmSquared) {
-    // 800 °C, 0.5 A/cm²: 1.2–1.35 V, near thermoneutral (common practice).
+TEST(SolidOxideCell, VoltageAgainstPublishedLongTermTests) {
+    // Schefold et al. (fuel-electrode-supported cell, steam electrolysis beyond 1000 h): 0.75 A/cm2 at
+    // 778-780 C with 40 % steam conversion, cell voltage 1.0-1.1 V (abstract seen). Air on the oxygen
+    // electrode (their fuel-cell-derived set-up; assumption), the default 90 % steam inlet.
+    const auto cell = soec({{"steam_utilisation", 0.4}, {"oxygen_electrode_o2_fraction", 0.21}});
+    const double v = cell->evaluate({7500.0, 1052.15, kAtm, kAtm}).voltage;
+    EXPECT_GE(v, 1.0);
+    EXPECT_LE(v, 1.1);
+    // Schefold, Brisse & Poepke, Electrochim. Acta 179 (2015) 161: an electrolyte-supported cell (thick
+    // scandia-zirconia electrolyte) ran at 1.185 V at 0.9 A/cm2, 847 C, 51 % conversion (abstract seen); a
+    // fuel-electrode-supported cell with its thin electrolyte runs below that, and above its reversible voltage.
+    const auto es = soec({{"steam_utilisation", 0.51}, {"oxygen_electrode_o2_fraction", 0.21}})
+                         ->evaluate({9000.0, 1120.15, kAtm, kAtm});
+    EXPECT_LT(es.voltage, 1.185);
+    EXPECT_GT(es.voltage, es.reversible_voltage + 0.05);
+    // At 800 C and 0.5 A/cm2 the cell's area-specific resistance (V − E)/j lies in the 0.15–0.5 ohm cm2
+    // of solid-oxide cells (REFERENCES.md, from memory; the concentration loss included).
     const auto r = soec()->evaluate({5000.0, 1073.15, kAtm, kAtm});
-    EXPECT_GT(r.voltage, 1.2);
-    EXPECT_LT(r.voltage, 1.35);
-    // Cell area-specific resistance (V − E)/j within 0.15–0.7 Ω cm² (REFERENCES.md: 0.15–0.5 Ω cm²,
-    // from memory; the concentration loss adds a little).
     const double asr = (r.voltage - r.reversible_voltage) / 5000.0;
-    EXPECT_GT(asr, 0.15e-4);
-    EXPECT_LT(asr, 0.7e-4);
+    EXPECT_GE(asr, 0.15e-4);
+    EXPECT_LE(asr, 0.5e-4);
 }
 
 TEST(SolidOxideCell, VoltagePartsSumExactlyAndRiseWithCurrentDensity) {
@@ -144,21 +148,26 @@ TEST(SolidOxideCell, FluxesAndElementBalances) {
 }
 
 TEST(SolidOxideCell, LimitingCurrentFromSteamDepletion) {
-    // j_lim = 2F·D_eff·c_H2O,out/δ at the outlet steam fraction x_in(1 − U): at U = 0.95 the
-    // outlet holds 4.5 % steam and j_lim ≈ 0.49 A/cm² at 800 °C [D from the defaults].
+    // j_lim = 2F·D_eff·c_H2O,out/δ at the outlet steam fraction x_in(1 − U). Hand calculation at U = 0.95,
+    // 800 C (every number shown): 2 x 96485.33 C/mol x 2e-5 m2/s x 1e5 Pa x 0.045 / (8.314463 J/(mol K)
+    // x 1073.15 K x 4e-4 m) = 4866.08 A/m2.
     const auto cell = soec({{"steam_utilisation", 0.95}});
-    const double x_out = 0.9 * 0.05;
-    const double j_lim = 2.0 * kFaraday * 2e-5 * kStandardPressure * x_out / (kGasConstant * 1073.15 * 400e-6);
-    EXPECT_NEAR(j_lim, 4866.0, 5.0);
     const double limit = cell->current_density_limit({0.0, 1073.15, kAtm, kAtm});
-    EXPECT_LT(limit, j_lim);
-    EXPECT_GT(limit, 0.999 * j_lim);
+    EXPECT_LT(limit, 4866.08);
+    EXPECT_GT(limit, 0.999 * 4866.08);
     expect_error([&] { cell->evaluate({5000.0, 1073.15, kAtm, kAtm}); }, ErrorKind::out_of_range, "limiting current");
-    EXPECT_TRUE(cell->evaluate({0.97 * j_lim, 1073.15, kAtm, kAtm}).warnings & kWarnNearLimitingCurrent);
+    EXPECT_TRUE(cell->evaluate({0.97 * 4866.08, 1073.15, kAtm, kAtm}).warnings & kWarnNearLimitingCurrent);
     // Default utilisation: the hard envelope (2 A/cm²) is below the diffusion limit (2.9 A/cm² at
-    // 800 °C, 2.5 A/cm² at 600 °C).
+    // 800 C, 2.5 A/cm² at 600 C).
     EXPECT_EQ(soec()->current_density_limit({0.0, 1073.15, kAtm, kAtm}), 2e4);
     EXPECT_EQ(soec()->current_density_limit({0.0, 873.15, kAtm, kAtm}), 2e4);
+}
+
+TEST(SolidOxideCell, ConcentrationLossHasASteamAndAHydrogenTerm) {
+    // Steam depleted and hydrogen accumulated at the reaction zone, both at the outlet composition. Hand
+    // calculation at the defaults, 800 C, 1 A/cm2: x_out = 0.27 steam, 0.73 hydrogen; j_lim = 2.91965 A/cm2,
+    // j_H2 = 7.89386 A/cm2; (RT/2F)[−ln(1 − 1/2.91965) + ln(1 + 1/7.89386)] = 0.0249039 V.
+    EXPECT_NEAR(soec()->evaluate({1e4, 1073.15, kAtm, kAtm}).concentration, 0.0249039, 1e-6);
 }
 
 TEST(SolidOxideCell, ErrorsOutsideEnvelopeNameTheLimit) {

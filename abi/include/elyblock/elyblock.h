@@ -6,10 +6,15 @@
  *
  * Conventions
  *  - Every fallible call returns an int32_t status: ELY_OK (0); > 0 a warning, the
- *    results are valid; < 0 an error, nothing was written to the out-parameters and
- *    the object is unchanged.
+ *    results are valid; < 0 an error: nothing was written to the out-parameters and the
+ *    object is as it was before the call, with one exception: a failed ely_block_solve
+ *    rolls the block back to its last successful solve, which discards the inputs and the
+ *    spec set since then (see "the block" below). A batch with a bad argument writes
+ *    nothing; a batch that ran (ELY_PARTIAL, ELY_ERR_CANCELLED) fills its arrays as it says.
  *  - ely_last_error() gives the message of the last failing call on the calling thread
  *    ("" after a call that succeeded). It also covers a failed create, which has no handle.
+ *    A message is at most about 4 KiB; user text it quotes (a key, a unit, a name) is cut
+ *    to a few dozen bytes, and control characters in it, NUL included, are written as \xNN.
  *  - No C++ exception ever leaves a function of this header.
  *  - Handles are independent: two threads may use two handles at once without locks.
  *    One handle must not be used by two threads at once.
@@ -88,8 +93,10 @@ ELY_API int32_t ely_molar_mass(const char* formula, double* kg_per_mol);
  * Life cycle: create (from JSON text or a file) → set inputs → solve → get outputs →
  * set … → solve … → destroy. Outputs are readable only while they belong to the current
  * inputs: after a successful solve and before the next set (else ELY_ERR_WRONG_STATE).
- * A failed solve rolls the inputs and the spec back to those of the last successful solve, so the
- * block keeps its last valid state. Variables are addressed by a dense index 0..count-1
+ * A failed set or set_spec changes nothing. A failed solve rolls the inputs, the spec and the
+ * outputs back to those of the last successful solve (the sets made since then are
+ * discarded; with no successful solve yet, back to the state after create), so the block
+ * keeps its last valid state. Variables are addressed by a dense index 0..count-1
  * (look it up by name with ely_block_find); the set of variables depends on the
  * technology of the configuration. */
 typedef struct ely_block ely_block;
@@ -112,7 +119,14 @@ typedef struct ely_variable_info {
 /* Progress of a long call: return 0 to go on, non-zero to cancel. */
 typedef int32_t (*ely_progress_fn)(size_t done, size_t total, void* user);
 
-/* On failure *out is set to NULL and ely_last_error() names the problem (JSON path). */
+/* On failure *out is set to NULL and ely_last_error() names the problem (JSON path).
+ * A plant description is kilobytes; the limits bound what any text can cost: at most
+ * 4 MiB (4194304 bytes) of JSON, 32 levels of nesting, 256 members per object, 1024
+ * elements per array, strings of 4096 bytes, keys of 128 bytes; a unit expression of at
+ * most 128 bytes and 16 levels of parentheses (ELY_ERR_CONFIG naming the limit).
+ * ely_block_create_from_file reads only a regular file of at most 4 MiB: a directory, a
+ * device, a FIFO or a larger file is refused at once with ELY_ERR_IO, without reading it.
+ * The path is UTF-8 (on Windows opened through its UTF-16 form). */
 ELY_API int32_t ely_block_create(const char* config_json, ely_block** out);
 ELY_API int32_t ely_block_create_from_file(const char* path, ely_block** out);
 ELY_API int32_t ely_block_clone(const ely_block* block, ely_block** out); /* same inputs and solution */
@@ -138,8 +152,12 @@ ELY_API int32_t ely_block_solve(ely_block* block);
  * point's status (outputs of a failed point are NaN). Points are solved in order on one
  * working copy, each starting from the state the previous one left. Returns ELY_OK,
  * ELY_WARNING (some point warned), ELY_PARTIAL (some point failed), ELY_ERR_CANCELLED (the
- * progress callback asked to stop; later points get ELY_ERR_CANCELLED), or an error for bad
- * arguments (nothing written). progress may be NULL. */
+ * progress callback asked to stop, even at its last call; points not yet solved get
+ * ELY_ERR_CANCELLED), or an error for bad arguments (nothing written). Arguments, checked
+ * for every count, zero included: n_inputs and n_outputs >= 0; input_indices (inputs only)
+ * and output_indices must be valid whenever n_inputs, n_outputs > 0, even for n_points = 0;
+ * inputs, outputs and point_status whenever n_points > 0 (and the count they go with is).
+ * progress is called every 1024 points and after the last; it may be NULL. */
 ELY_API int32_t ely_block_solve_batch(const ely_block* block, size_t n_points, int32_t n_inputs,
                                       const int32_t* input_indices, const double* inputs, int32_t n_outputs,
                                       const int32_t* output_indices, double* outputs, int32_t* point_status,

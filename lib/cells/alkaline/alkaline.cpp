@@ -1,7 +1,8 @@
 // Alkaline (KOH) water electrolysis cell, zero-gap or with an electrolyte gap at each electrode.
 //
 // voltage = E_rev + η_act,anode + η_act,cathode + η_ohm + η_conc, each part computed on its own,
-// all at the electrode (reaction) current density j_e (= j unless bypass currents are modelled):
+// at the current the electrodes carry: j less the shunt currents that bypass them through the
+// manifolds (shunt options), or the full j with Ulleberg's efficiency (its loss is parasitic):
 //   E_rev   Nernst with the wet product gases over KOH(aq) of water activity a_w (Balej 1985),
 //           HHV thermoneutral voltage;
 //   η_act   Butler–Volmer (or Tafel) per electrode with an Arrhenius exchange current density;
@@ -24,6 +25,7 @@
 #include "cells/technologies.hpp"
 #include "electrochem/conduction.hpp"
 #include "electrochem/crossover.hpp"
+#include "electrochem/electrolyte.hpp"
 #include "electrochem/kinetics.hpp"
 #include "base/check.hpp"
 #include "thermo/constants.hpp"
@@ -34,6 +36,8 @@ namespace ely {
 namespace {
 
 constexpr double kReferenceTemperature = 353.15;  // K, where j0 and permeabilities are given
+// Ulleberg's table of Faraday-efficiency parameters spans 40..80 °C; f1, f2 are given at 80 °C.
+constexpr double kUllebergReferenceTemperature = 353.15, kUllebergTableLow = 313.15, kUllebergTableHigh = 353.15;
 
 const std::vector<ParameterInfo> kAlkalineParameters = {
     {"koh_mass_fraction", "kg/kg", 0.30, 0.05, 0.45, "KOH mass fraction of the electrolyte",
@@ -67,9 +71,10 @@ const std::vector<ParameterInfo> kAlkalineParameters = {
     {"anode_transfer_coefficient_backward", "1", 0.8, 0.05, 4.0,
      "transfer coefficient of the reverse direction at the anode; matters only near equilibrium",
      "typical value, from memory (equal to the forward value: closed-form Butler-Volmer)"},
-    {"cathode_exchange_current_density", "A/m2", 30.0, 1e-6, 1e4,
-     "hydrogen evolution exchange current density at 353.15 K, geometric area",
-     "typical value, from memory: activated nickel cathodes, order 1e-3 A/cm2"},
+    {"cathode_exchange_current_density", "A/m2", 120.0, 1e-6, 1e4,
+     "hydrogen evolution exchange current density at 353.15 K, geometric area (roughness included)",
+     "activated (Raney-type) nickel cathodes, 1.2e-2 A/cm2 geometric: gives about 0.2 V at 0.3 A/cm2 and 80 C with "
+     "the 140 mV/dec of alpha = 0.5, the upper end of the 0.1-0.2 V such cathodes show in 30 wt% KOH (from memory)"},
     {"cathode_activation_energy", "J/mol", 23e3, 0.0, 200e3,
      "activation energy of the cathode exchange current density", "typical value, from memory"},
     {"cathode_transfer_coefficient_forward", "1", 0.5, 0.05, 4.0, "cathodic (hydrogen evolution) transfer coefficient",
@@ -82,9 +87,10 @@ const std::vector<ParameterInfo> kAlkalineParameters = {
     {"h2_permeability", "mol/(m s Pa)", 3.2e-15, 0.0, 1e-11,
      "effective hydrogen permeability of the electrolyte-filled separator at 353.15 K (dissolved-gas diffusion and "
      "electrolyte carry-over together)",
-     "chosen with supersaturation_pressure so that hydrogen in oxygen is about 1.5 % at 15 % of 0.4 A/cm2 at 80 C and "
-     "30 bar and about 1 % at 5 % load at 1 atm, as plants report 1-2 % near low load (common practice); diffusion "
-     "of dissolved hydrogen alone through the separator gives about a third of it"},
+     "effective value set with supersaturation_pressure so that gas purity limits the part load as published: at "
+     "30 bar the 2 % trip is reached at about 12 % of 0.4 A/cm2 (part load limited to about 10-40 %: Haug, PhD "
+     "thesis, Clausthal 2019), at 8 bar 10 % load stays below it (de Groot, Kraakman & Barros, Int. J. Hydrogen "
+     "Energy 47 (2022) 34773); diffusion of dissolved hydrogen alone through the separator gives about a third"},
     {"h2_permeability_activation_energy", "J/mol", 15e3, 0.0, 100e3,
      "activation energy of the hydrogen permeability", "typical value, from memory"},
     {"o2_permeability", "mol/(m s Pa)", 1.6e-15, 0.0, 1e-11,
@@ -95,27 +101,33 @@ const std::vector<ParameterInfo> kAlkalineParameters = {
     {"supersaturation_pressure", "Pa", 7.5e5, 0.0, 1e7,
      "effective supersaturation of dissolved gas at the gas-evolving electrodes, added to each gas's partial pressure "
      "in the crossover: N = P (p_gas + p_ss)/delta",
-     "chosen with h2_permeability (see there); supersaturation of dissolved product gas near gas-evolving electrodes "
-     "dominates the crossover at low pressure (Haug et al., Int. J. Hydrogen Energy 42 (2017) 9406, from memory; "
-     "de Groot, Kraakman & Barros, Int. J. Hydrogen Energy 47 (2022) 34773: crossover mainly diffusive H2 driven by "
-     "supersaturation at the diaphragm)"},
+     "set with h2_permeability (see there); supersaturation of dissolved gas at the separator drives much of the "
+     "crossover (de Groot, Kraakman & Barros, Int. J. Hydrogen Energy 47 (2022) 34773; Trinke et al., "
+     "J. Electrochem. Soc. 165 (2018) F502), which also find electrolyte mixing dominant at 1 bar, lumped in here"},
     {"o2_recombination_fraction", "1", 0.0, 0.0, 1.0,
      "fraction of the oxygen permeating to the cathode that recombines with hydrogen (forming water)",
      "typical assumption: nickel cathodes recombine little; the oxygen stays in the hydrogen (from memory)"},
     {"faraday_model", "1", 0.0, 0.0, 1.0,
      "Faraday efficiency: 0 = gas crossover (+ shunt option), 1 = Ulleberg 2003 empirical", "model choice"},
-    {"ulleberg_f1", "A2/m4", 2.5e4, 1.0, 1e8, "Ulleberg f1 in (A/m2)^2 (250 (mA/cm2)^2 = 2.5e4 (A/m2)^2)",
-     "Ulleberg, Int. J. Hydrogen Energy 28 (2003) 21: f1 = 250 (mA/cm2)^2 (from memory; the same value appears in "
-     "public model code citing the paper)"},
-    {"ulleberg_f2", "1", 0.96, 0.5, 1.0, "Ulleberg f2",
-     "Ulleberg, Int. J. Hydrogen Energy 28 (2003) 21: f2 = 0.96 (from memory; the same value appears in public model "
-     "code citing the paper)"},
+    {"ulleberg_f1", "A2/m4", 2.5e4, 1.0, 1e8,
+     "Ulleberg f1 at 80 C in (A/m2)^2 (250 (mA/cm2)^2 = 2.5e4 (A/m2)^2); j in eta_F = j^2/(f1 + j^2) f2 is the "
+     "current density",
+     "Ulleberg, Int. J. Hydrogen Energy 28 (2003) 21, table of Faraday-efficiency parameters: f1 = 150, 200, 250 "
+     "mA2/cm4 at 40, 60, 80 C (from memory)"},
+    {"ulleberg_f1_temperature_coefficient", "A2/(m4 K)", 250.0, -1e6, 1e6,
+     "change of f1 per kelvin (linear in T about 80 C)",
+     "the same table: 2.5 (mA/cm2)^2 per K = 250 (A/m2)^2 per K, linear through all three rows"},
+    {"ulleberg_f2", "1", 0.98, 0.5, 1.0, "Ulleberg f2 at 80 C",
+     "the same table: f2 = 0.990, 0.985, 0.980 at 40, 60, 80 C (from memory)"},
+    {"ulleberg_f2_temperature_coefficient", "1/K", -2.5e-4, -0.01, 0.01,
+     "change of f2 per kelvin (linear in T about 80 C)", "the same table: -0.00025 per K through all three rows"},
     {"shunt_model", "1", 0.0, 0.0, 2.0,
      "shunt currents (faraday_model 0 only): 0 = none, 1 = fixed fraction, 2 = manifold resistor network",
      "model choice"},
     {"shunt_current_fraction", "1", 0.0, 0.0, 0.5, "fraction of the current bypassing the electrodes (shunt_model 1)",
      "off by default"},
-    {"shunt_cells", "1", 100.0, 1.0, 10000.0, "cells of the stack for the shunt network (shunt_model 2; default: stack.cells)",
+    {"shunt_cells", "1", 100.0, 1.0, 10000.0,
+     "cells of the stack for the shunt network (shunt_model 2; default: stack.cells, whose limit is the same)",
      "typical value, from memory"},
     {"shunt_channel_length_per_area", "1/m", 2500.0, 1.0, 1e8,
      "length over cross-section of one cell's electrolyte ports, all in parallel: R_channel = value/sigma_KOH",
@@ -136,7 +148,7 @@ class AlkalineCell final : public Cell {
 public:
     explicit AlkalineCell(const ParameterValues& v)
         : mass_fraction_(v.get("koh_mass_fraction")),
-          molality_(koh_molality(mass_fraction_)),
+          molality_(molality_from_mass_fraction(mass_fraction_, molar_mass::KOH)),
           gap_(v.get("gap_anode") + v.get("gap_cathode")),
           separator_thickness_(v.get("separator_thickness")),
           macmullin_(v.get("separator_macmullin_number")),
@@ -144,19 +156,21 @@ public:
           bubbles_{v.get("bubble_void_coefficient"), v.get("bubble_void_exponent"), v.get("bubble_void_max")},
           anode_(read_kinetics(v, "anode", kReferenceTemperature)),
           cathode_(read_kinetics(v, "cathode", kReferenceTemperature)),
-          tafel_(read_choice(v, "kinetics_model", 1) == 1),
+          tafel_(read_choice(v, "kinetics_model") == 1),
           limiting_current_density_(v.get("limiting_current_density")),
           h2_{v.get("h2_permeability"), v.get("h2_permeability_activation_energy"), kReferenceTemperature},
           o2_{v.get("o2_permeability"), v.get("o2_permeability_activation_energy"), kReferenceTemperature},
           supersaturation_(v.get("supersaturation_pressure")),
-          recombination_(v.get("o2_recombination_fraction")),
-          ulleberg_(read_choice(v, "faraday_model", 1) == 1),
+          recombination_{v.get("o2_recombination_fraction"), 0.0},
+          ulleberg_(read_choice(v, "faraday_model") == 1),
           f1_(v.get("ulleberg_f1")),
+          f1_slope_(v.get("ulleberg_f1_temperature_coefficient")),
           f2_(v.get("ulleberg_f2")),
-          shunt_model_(read_choice(v, "shunt_model", 2)),
+          f2_slope_(v.get("ulleberg_f2_temperature_coefficient")),
+          shunt_model_(read_choice(v, "shunt_model")),
           shunt_fraction_(v.get("shunt_current_fraction")) {
         if (shunt_model_ == 2) {
-            const int cells = static_cast<int>(read_choice(v, "shunt_cells", 1000));
+            const int cells = static_cast<int>(read_choice(v, "shunt_cells"));
             const double channel = v.get("shunt_channel_length_per_area");
             const double factor = shunt_loss_factor(cells, v.get("shunt_manifold_length_per_area") / channel);
             // Mean lost current density per cell = G·V/(N·R_ch·A) with R_ch = channel/σ.
@@ -200,17 +214,20 @@ public:
         }
 
         const CrossoverFluxes x = crossover(p, a_w);
-        const double h2_lost = x.hydrogen + 2.0 * recombination_ * x.oxygen;
+        const double h2_lost = x.hydrogen + 2.0 * recombination_.oxygen_at_cathode * x.oxygen;
 
         // Electrode current density: the terminal current less bypass currents that make no gas.
-        double j_e = j;
+        // Ulleberg's efficiency lumps parasitic currents that bypass the electrodes without
+        // lowering the current they carry: the losses stay at the terminal current.
+        double j_e = j, j_losses = j;
         if (ulleberg_) {
             // Bypass current that brings the hydrogen delivered down to Ulleberg's efficiency; none
             // when crossover alone already loses more.
-            const double bypass = (1.0 - faraday_efficiency_ulleberg(j, f1_, f2_)) * j / (2.0 * kFaraday) - h2_lost;
+            const double bypass =
+                (1.0 - ulleberg_faraday_efficiency(j, t, &r.warnings)) * j / (2.0 * kFaraday) - h2_lost;
             if (bypass > 0.0) j_e = j - 2.0 * kFaraday * bypass;
         } else if (shunt_model_ == 1) {
-            j_e = j * (1.0 - shunt_fraction_);
+            j_e = j_losses = j * (1.0 - shunt_fraction_);
         } else if (shunt_model_ == 2) {
             // Shunt current ∝ cell voltage, which depends weakly on j_e: fixed-point iteration from
             // the reversible voltage (contraction factor k·dV/dj_e, about 1e-5 at nominal load and
@@ -223,10 +240,11 @@ public:
                 j_e = next;
                 if (converged) break;
             }
+            j_losses = j_e;
         }
         fill_water_cell_gases(r, j_e, x, recombination_, "alkaline", p);
-        const Losses losses = compute_losses(j_e, t, sigma);
-        if (j_e > 0.95 * limiting_current_density_) r.warnings |= kWarnNearLimitingCurrent;
+        const Losses losses = compute_losses(j_losses, t, sigma);
+        if (j_losses > 0.95 * limiting_current_density_) r.warnings |= kWarnNearLimitingCurrent;
         r.activation_anode = losses.activation_anode;
         r.activation_cathode = losses.activation_cathode;
         r.ohmic = losses.ohmic;
@@ -236,6 +254,14 @@ public:
     }
 
 private:
+    // Ulleberg (2003) with f1 and f2 linear in temperature about 80 °C, as his table at 40, 60 and
+    // 80 °C gives them; outside 40..80 °C the result carries the extrapolation flag.
+    double ulleberg_faraday_efficiency(double j, double t, uint32_t* warnings) const {
+        const double dt = t - kUllebergReferenceTemperature;
+        if (t < kUllebergTableLow || t > kUllebergTableHigh) *warnings |= kWarnTemperatureExtrapolated;
+        return faraday_efficiency_ulleberg(j, f1_ + f1_slope_ * dt, std::min(1.0, f2_ + f2_slope_ * dt));
+    }
+
     // Crossover driven by the partial pressures of the wet gases over the electrolyte (water
     // activity a_w) plus the supersaturation of the dissolved gas at the electrodes.
     CrossoverFluxes crossover(const OperatingPoint& p, double a_w) const {
@@ -265,9 +291,10 @@ private:
     bool tafel_;
     double limiting_current_density_;
     GasPermeability h2_, o2_;
-    double supersaturation_, recombination_;
+    double supersaturation_;
+    Recombination recombination_;
     bool ulleberg_;
-    double f1_, f2_;
+    double f1_, f1_slope_, f2_, f2_slope_;
     uint32_t shunt_model_;
     double shunt_fraction_;
     double shunt_conductance_factor_ = 0.0;  // G/(N·(L/A)_channel·A_cell), 1/m: j_shunt = factor·σ·V
