@@ -91,6 +91,34 @@ bool si_unit(const std::string& unit, std::vector<double>& dims, double& scale) 
     return true;
 }
 
+// What the second version of ely_variable_info adds (variability, limits, start value, display
+// label), when the header this is built against has it and the library filled it (an older
+// library leaves `label` NULL). With the first version, `present` stays false.
+struct Metadata {
+    bool present = false, tunable = false, discrete = false, min_exclusive = false;
+    double min = std::numeric_limits<double>::quiet_NaN(), max = std::numeric_limits<double>::quiet_NaN();
+    double start = std::numeric_limits<double>::quiet_NaN();
+    std::string label;
+};
+
+Metadata metadata(const ely_variable_info& info) {
+    Metadata m;
+#ifdef ELY_VARIABILITY_TUNABLE
+    if (info.struct_size < sizeof info || info.label == nullptr) return m;
+    m.present = true;
+    m.tunable = info.variability == ELY_VARIABILITY_TUNABLE;
+    m.discrete = info.variability == ELY_VARIABILITY_DISCRETE;
+    m.min_exclusive = (info.flags & ELY_VARIABLE_MIN_EXCLUSIVE) != 0;
+    if (std::isfinite(info.min)) m.min = info.min;  // CAPE-OPEN: NaN for "no bound"
+    if (std::isfinite(info.max)) m.max = info.max;
+    m.start = info.start;
+    m.label = info.label;
+#else
+    (void)info;
+#endif
+    return m;
+}
+
 }  // namespace
 
 // ---- Collection ---------------------------------------------------------------------------
@@ -257,8 +285,9 @@ std::wstring Parameter::check_number(double v) const {
     if (std::isnan(v)) return L"'" + name_ + L"' needs a value (not NaN)";
     if (std::isinf(v)) return L"'" + name_ + L"' must be finite";
     if (spec_.kind == ParamKind::integer && v != std::floor(v)) return L"'" + name_ + L"' takes whole numbers";
-    if (!std::isnan(spec_.lower) && v < spec_.lower)
-        return L"'" + name_ + L"' = " + number_text(v) + L" is below its lower bound " + number_text(spec_.lower);
+    if (!std::isnan(spec_.lower) && (v < spec_.lower || (spec_.lower_exclusive && v == spec_.lower)))
+        return L"'" + name_ + L"' = " + number_text(v) + L" is " + (spec_.lower_exclusive ? L"not above" : L"below") +
+               L" its lower bound " + number_text(spec_.lower);
     if (!std::isnan(spec_.upper) && v > spec_.upper)
         return L"'" + name_ + L"' = " + number_text(v) + L" is above its upper bound " + number_text(spec_.upper);
     return L"";
@@ -544,11 +573,19 @@ void Unit::build_parameters(const std::wstring& plant_text, const std::wstring& 
         if (ely_block_variable_info(block_, i, &info) != ELY_OK) continue;
         const std::string name = info.name;
         if (name == "in.feed_temperature") continue;
+        const Metadata meta = metadata(info);
+        const auto ends_with = [&](const char* tail) {
+            const size_t n = std::strlen(tail);
+            return name.size() >= n && name.compare(name.size() - n, n, tail) == 0;
+        };
         Parameter::Spec ps;
         ps.variable = name;
-        ps.kind = (name.rfind("alarm.", 0) == 0 || name == "param.cells" || name == "param.stacks") ? ParamKind::integer
-                                                                                                       : ParamKind::real;
-        ps.mode = info.causality == ELY_CAUSALITY_INPUT ? CAPE_INPUT : CAPE_OUTPUT;
+        ps.kind = (meta.present ? meta.discrete : name.rfind("alarm.", 0) == 0) || ends_with(".cells") || ends_with(".stacks")
+                      ? ParamKind::integer
+                      : ParamKind::real;
+        ps.mode = info.causality == ELY_CAUSALITY_INPUT || (info.causality == ELY_CAUSALITY_PARAMETER && meta.tunable)
+                      ? CAPE_INPUT
+                      : CAPE_OUTPUT;
         std::vector<double> dims;
         double scale = 1.0;
         if (si_unit(info.unit, dims, scale)) {
@@ -558,12 +595,21 @@ void Unit::build_parameters(const std::wstring& plant_text, const std::wstring& 
         double value = std::numeric_limits<double>::quiet_NaN();
         const bool readable = ely_block_get(block_, i, &value) == ELY_OK;
         if (ps.mode == CAPE_INPUT) {
-            // Every input of the table is a non-negative physical quantity (absolute temperature
-            // and pressures, current, power, flows, hours): 0 is the lower bound.
-            ps.lower = 0.0;
-            ps.default_number = readable ? value * ps.scale : 0.0;
+            if (meta.present) {
+                // The table's limits and start value (the plant description's, or its default).
+                ps.lower = meta.min * ps.scale;
+                ps.upper = meta.max * ps.scale;
+                ps.lower_exclusive = meta.min_exclusive;
+                ps.default_number = (std::isnan(meta.start) ? (readable ? value : 0.0) : meta.start) * ps.scale;
+            } else {
+                // Every input of the first table is a non-negative physical quantity (absolute
+                // temperature and pressures, current, power, flows, hours): 0 is the lower bound.
+                ps.lower = 0.0;
+                ps.default_number = readable ? value * ps.scale : 0.0;
+            }
         }
-        std::wstring description = to_wide(info.description) + L" [SI: " + to_wide(info.unit) + L"]";
+        std::wstring description = (meta.label.empty() ? L"" : to_wide(meta.label) + L": ") + to_wide(info.description) +
+                                   L" [SI: " + to_wide(info.unit) + L"]";
         if (ps.scale != 1.0) description += L" (the variable table gives " + to_wide(info.unit) + L"; here in SI units)";
         auto* p = new Parameter(this, to_wide(name), description, ps);
         if (ps.mode == CAPE_OUTPUT && info.causality == ELY_CAUSALITY_PARAMETER && readable) p->set_number(value * ps.scale);

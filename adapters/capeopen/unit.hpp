@@ -78,6 +78,7 @@ public:
         CapeParamMode mode = CAPE_INPUT;
         double lower = std::numeric_limits<double>::quiet_NaN();
         double upper = std::numeric_limits<double>::quiet_NaN();
+        bool lower_exclusive = false;  // the value must be above `lower`
         double default_number = std::numeric_limits<double>::quiet_NaN();
         std::wstring default_text;
         std::vector<std::wstring> options;
