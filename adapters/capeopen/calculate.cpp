@@ -261,6 +261,12 @@ public:
     double liquid = 0;
 };
 
+bool is_drive_input(const std::string& variable) {
+    for (const char* d : {"current_density", "current", "power", "hydrogen_rate", "voltage"})
+        if (variable == std::string("in.") + d) return true;
+    return false;
+}
+
 std::string Unit::apply_inputs(ely_block* b, double feed_temperature) {
     Parameter* spec = parameter("spec");
     const std::string spec_name = to_utf8(spec->text());
@@ -269,10 +275,7 @@ std::string Unit::apply_inputs(ely_block* b, double feed_temperature) {
         const auto& s = p->spec();
         if (s.mode != CAPE_INPUT || s.variable.empty()) continue;
         // Only the drive input of the current spec is read; the others stay as they are.
-        bool other_drive = false;
-        for (const char* d : {"current_density", "current", "power", "hydrogen_rate", "voltage"})
-            if (s.variable == std::string("in.") + d && spec_name != d) other_drive = true;
-        if (other_drive) continue;
+        if (is_drive_input(s.variable) && s.variable != "in." + spec_name) continue;
         int32_t i = -1;
         if (ely_block_find(b, s.variable.c_str(), &i) != ELY_OK || ely_block_set(b, i, p->number() / s.scale) != ELY_OK)
             return s.variable + ": " + ely_last_error();
@@ -310,8 +313,11 @@ bool Unit::check(std::wstring& why) {
         why = L"no plant description: set the parameter 'plant'";
         return false;
     }
+    const std::string spec_name = to_utf8(parameter("spec")->text());
     for (Parameter* p : parameter_list_) {
         if (p->spec().mode != CAPE_INPUT) continue;
+        if (is_drive_input(p->spec().variable) && p->spec().variable != "in." + spec_name && std::isnan(p->number()))
+            continue;  // the drive input of another spec may stay unset
         const std::wstring w = p->spec().kind == ParamKind::option ? p->check_text(p->text()) : p->check_number(p->number());
         if (!w.empty()) {
             why = w;

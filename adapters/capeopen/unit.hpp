@@ -12,6 +12,9 @@ namespace elyco {
 
 class Unit;
 
+// One of the drive inputs (in.current_density, in.current, in.power, in.hydrogen_rate, in.voltage).
+bool is_drive_input(const std::string& variable);
+
 // ProgIDs of our own (the class id is the coclass of capeopen.idl: CLSID_ElyblockElectrolyzer).
 extern const wchar_t* const kProgId;
 extern const wchar_t* const kVersionIndependentProgId;
