@@ -17,7 +17,6 @@
 #include <vector>
 
 #include "cells/cell_support.hpp"
-#include "cells/technologies.hpp"
 #include "electrochem/conduction.hpp"
 #include "electrochem/crossover.hpp"
 #include "electrochem/kinetics.hpp"
@@ -102,7 +101,6 @@ public:
           recombination_(v.get("o2_recombination_fraction")),
           drag_(v.get("electroosmotic_drag")) {}
 
-    Technology technology() const override { return Technology::pem; }
     const Envelope& envelope() const override { return envelope_; }
     std::unique_ptr<Cell> clone() const override { return std::make_unique<PemCell>(*this); }
 
