@@ -287,12 +287,12 @@ void build_reaction_cell(const json::value* cell, const json::value* reactions, 
 
 void check_alarms(const PlantDesign& d) {
     const auto& c = d.configured;
-    if (!(c[par_alarms_h2_in_o2_warning] < c[par_alarms_h2_in_o2_trip]))
-        fail("$.plant.alarms", fmt::format("h2_in_o2_warning {:g} must be below h2_in_o2_trip {:g}",
-                                           c[par_alarms_h2_in_o2_warning], c[par_alarms_h2_in_o2_trip]));
-    if (!(c[par_alarms_h2_in_o2_trip] < c[par_alarms_lower_flammability_limit]))
-        fail("$.plant.alarms", fmt::format("h2_in_o2_trip {:g} must be below lower_flammability_limit {:g}",
-                                           c[par_alarms_h2_in_o2_trip], c[par_alarms_lower_flammability_limit]));
+    try {
+        check_alarm_levels(c[par_alarms_h2_in_o2_warning], c[par_alarms_h2_in_o2_trip],
+                           c[par_alarms_lower_flammability_limit]);
+    } catch (const Error& e) {
+        fail("$.plant.alarms", e.what());
+    }
 }
 
 /// The spec reads a drive input that exists for the technology and has a value.
@@ -323,23 +323,29 @@ void settle_operating_point(const json::value& root, PlantDesign& d) {
     const Envelope& e = d.cell->envelope();
     auto& c = d.configured;
     const json::value* given = root.get_object().if_contains("operating");
-    if (!has(given, "temperature")) {
+    // Keys of the operating section, as the variable table names them.
+    const auto given_key = [&](Var v) { return has(given, std::strrchr(variable_info(v).config_key, '.') + 1); };
+    if (!given_key(in_temperature)) {
         c[in_temperature] = 0.5 * (e.temperature_fit_min + e.temperature_fit_max);
         if (c[par_temperature_max] > 0) c[in_temperature] = std::min(c[in_temperature], c[par_temperature_max]);
     }
     const double p_default = std::min(std::max(kAtmosphere, e.pressure_min), e.pressure_max);
-    if (!has(given, "pressure_cathode")) c[in_pressure_cathode] = p_default;
-    if (!has(given, "pressure_anode")) c[in_pressure_anode] = p_default;
-    if (!has(given, "current_density")) {
+    if (!given_key(in_pressure_cathode)) c[in_pressure_cathode] = p_default;
+    if (!given_key(in_pressure_anode)) c[in_pressure_anode] = p_default;
+    if (!given_key(in_current_density)) {
         const double j_max = c[par_current_density_max] > 0 ? std::min(c[par_current_density_max], e.current_density_max)
                                                             : e.current_density_max;
         c[in_current_density] = std::min(c[in_current_density], 0.5 * j_max);
     }
     const TechnologyInfo& t = *d.technology;
-    check_in_envelope(c[in_temperature], e.temperature_min, e.temperature_max, "K", "$.operating.temperature", t);
-    check_in_envelope(c[in_pressure_cathode], e.pressure_min, e.pressure_max, "Pa", "$.operating.pressure_cathode", t);
-    check_in_envelope(c[in_pressure_anode], e.pressure_min, e.pressure_max, "Pa", "$.operating.pressure_anode", t);
-    check_in_envelope(c[in_current_density], 0, e.current_density_max, "A/m2", "$.operating.current_density", t);
+    const auto check = [&](Var v, double lo, double hi) {
+        const VariableInfo& info = variable_info(v);
+        check_in_envelope(c[v], lo, hi, info.unit, info.config_key, t);
+    };
+    check(in_temperature, e.temperature_min, e.temperature_max);
+    check(in_pressure_cathode, e.pressure_min, e.pressure_max);
+    check(in_pressure_anode, e.pressure_min, e.pressure_max);
+    check(in_current_density, 0, e.current_density_max);
 }
 
 }  // namespace

@@ -1,10 +1,25 @@
 // Alarms: each is a variable of the table (alarm_first .. alarm_last), whose label is the text
 // the solve reports when it is raised; alarm.any summarises them.
+#include <cstring>
+#include <fmt/format.h>
 #include <string>
 
+#include "base/error.hpp"
 #include "unit/point_result.hpp"
 
 namespace ely {
+
+void check_alarm_levels(double warning, double trip, double lower_flammability_limit) {
+    const double levels[] = {warning, trip, lower_flammability_limit};
+    for (int k = 0; k < 2; ++k) {
+        if (levels[k] < levels[k + 1]) continue;
+        const VariableInfo& low = variable_info(Var(par_alarms_h2_in_o2_warning + k));
+        const VariableInfo& high = variable_info(Var(par_alarms_h2_in_o2_warning + k + 1));
+        const auto key = [](const VariableInfo& v) { return std::strrchr(v.config_key, '.') + 1; };
+        throw Error(ErrorKind::invalid_argument, fmt::format("{} {:g} must be below {} {:g} ({}, {})", key(low), levels[k],
+                                                             key(high), levels[k + 1], low.name, high.name));
+    }
+}
 
 void Block::fill_alarms(const PointResult& r) {
     const auto& c = r.cell;

@@ -182,12 +182,7 @@ void Block::set_plant_parameter(Var v, double value) {
         double levels[] = {v_[par_alarms_h2_in_o2_warning], v_[par_alarms_h2_in_o2_trip],
                            v_[par_alarms_lower_flammability_limit]};
         levels[v - par_alarms_h2_in_o2_warning] = value;
-        for (int k = 0; k < 2; ++k)
-            if (!(levels[k] < levels[k + 1]))
-                throw Error(ErrorKind::invalid_argument,
-                            fmt::format("{} {:g} must be below {} {:g}", variable_info(Var(par_alarms_h2_in_o2_warning + k)).name,
-                                        levels[k], variable_info(Var(par_alarms_h2_in_o2_warning + k + 1)).name,
-                                        levels[k + 1]));
+        check_alarm_levels(levels[0], levels[1], levels[2]);
     }
     if (v == par_current_density_max && !(value > 0)) value = cell_->envelope().current_density_max;
     const double before = v_[v];

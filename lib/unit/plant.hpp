@@ -37,4 +37,9 @@ struct PlantDesign {
     double active_area() const { return configured[par_active_area]; }
 };
 
+/// The alarm levels keep their order, warning < trip < lower flammability limit (values of
+/// par_alarms_h2_in_o2_warning, _trip, _lower_flammability_limit): throws invalid_argument
+/// naming the keys and variables otherwise. The config and Block::set both check with it.
+void check_alarm_levels(double warning, double trip, double lower_flammability_limit);
+
 }  // namespace ely
