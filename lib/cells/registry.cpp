@@ -17,6 +17,8 @@ const std::vector<ParameterInfo>& solid_oxide_parameters();
 std::unique_ptr<Cell> make_solid_oxide_cell(const ParameterValues& values);
 const std::vector<ParameterInfo>& brine_parameters();
 std::unique_ptr<Cell> make_brine_cell(const ParameterValues& values);
+const std::vector<ParameterInfo>& aem_parameters();
+std::unique_ptr<Cell> make_aem_cell(const ParameterValues& values);
 
 namespace {
 
@@ -84,6 +86,8 @@ const std::vector<TechnologyInfo>& technologies() {
         {"custom", "custom cell from a table of competing half-reactions",
          kMakesHydrogen | kReactionTable | kHeatFromThermoneutralVoltage, nullptr, nullptr, {}, custom_summary(),
          "examples/minimal/custom.json"},
+        {"aem", "anion-exchange-membrane water electrolysis (dilute KOH or pure-water feed)",
+         kMakesHydrogen | kMakesOxygen, aem_parameters, make_aem_cell, {}, water_summary(), "examples/minimal/aem.json"},
     };
     return all;
 }
