@@ -32,13 +32,13 @@ int32_t finish_solve(const ely::SolveOutcome& outcome) {
 }
 
 ely::Spec parse_spec(const char* text) {
-    const ely::Spec all[] = {ely::Spec::current_density, ely::Spec::current, ely::Spec::power,
-                             ely::Spec::hydrogen_rate, ely::Spec::voltage};
-    for (auto s : all)
-        if (std::strcmp(text, ely::spec_name(s)) == 0) return s;
-    throw Error(ErrorKind::invalid_argument,
-                "unknown spec '" + ely::excerpt(text) + "'; known: current_density, current, power, hydrogen_rate, voltage");
+    if (const ely::SpecInfo* s = ely::find_spec(text)) return s->spec;
+    throw Error(ErrorKind::invalid_argument, "unknown spec '" + ely::excerpt(text) + "'; known: " + ely::spec_names());
 }
+
+// Sizes of the versions of ely_variable_info: a caller's struct_size says which members it has.
+constexpr size_t kVariableInfoV1 = offsetof(ely_variable_info, description) + sizeof(const char*);
+constexpr size_t kVariableInfoV2 = offsetof(ely_variable_info, summary_rank) + sizeof(int32_t);
 }  // namespace
 
 extern "C" {
@@ -88,15 +88,29 @@ ELY_API int32_t ely_block_variable_info(const ely_block* block, int32_t index, e
     return guard([&] {
         require_pointer(block, "block");
         require_pointer(info, "info");
-        const size_t v1_size = offsetof(ely_variable_info, description) + sizeof(const char*);
-        if (info->struct_size < v1_size)
+        if (info->struct_size < kVariableInfoV1)
             throw Error(ErrorKind::invalid_argument, "info->struct_size is " + std::to_string(info->struct_size) +
                                                          "; set it to sizeof(ely_variable_info)");
-        const auto& v = block->model.variable(index);
+        const auto& m = block->model;
+        const auto& v = m.variable(index);
         info->causality = static_cast<int32_t>(v.causality);
         info->name = v.name;
         info->unit = v.unit;
         info->description = v.description;
+        if (info->struct_size < kVariableInfoV2) return ELY_OK;
+        info->variability = static_cast<int32_t>(v.variability);
+        info->flags = v.min_exclusive ? ELY_VARIABLE_MIN_EXCLUSIVE : 0u;
+        info->min = v.min;
+        info->max = v.max;
+        info->start = m.start(index);
+        info->nominal = v.nominal;
+        info->label = v.label;
+        info->display_unit = v.display_symbol();
+        info->display_scale = v.display.scale;
+        info->display_offset = v.display.offset;
+        info->summary_group = m.summary_group(index);
+        info->config_key = v.config_key ? v.config_key : "";
+        info->summary_rank = m.summary_rank(index);
         return ELY_OK;
     });
 }
@@ -133,6 +147,15 @@ ELY_API int32_t ely_block_set_spec(ely_block* block, const char* spec) {
         require_pointer(block, "block");
         require_pointer(spec, "spec");
         block->model.set_spec(parse_spec(spec));
+        return ELY_OK;
+    });
+}
+
+ELY_API int32_t ely_block_get_spec(const ely_block* block, const char** spec) {
+    return guard([&] {
+        require_pointer(block, "block");
+        require_pointer(spec, "spec");
+        *spec = ely::spec_name(block->model.spec());
         return ELY_OK;
     });
 }

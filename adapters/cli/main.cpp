@@ -2,6 +2,7 @@
 #include <elyblock/elyblock.h>
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
@@ -113,14 +114,6 @@ void open_block(const Options& o, BlockHandle& h) {
     for (const auto& [name, v] : o.sets) check(ely_block_set(h.p, find(h.p, name), v), ("--set " + name).c_str());
 }
 
-double get(const ely_block* b, const char* name) {
-    int32_t index = -1;
-    if (ely_block_find(b, name, &index) != ELY_OK) return NAN;  // not a variable of this technology
-    double v = NAN;
-    check(ely_block_get(b, index, &v), name);
-    return v;
-}
-
 std::string report(const ely_block* b) {
     size_t n = 0;
     check(ely_block_report_json(b, nullptr, 0, &n), "report");
@@ -130,58 +123,53 @@ std::string report(const ely_block* b) {
     return text;
 }
 
+ely_variable_info variable_info(const ely_block* b, int32_t index) {
+    ely_variable_info info{};
+    info.struct_size = sizeof info;
+    check(ely_block_variable_info(b, index, &info), "variables");
+    return info;
+}
+
+// The summary is the technology's layout from the variable table: each variable's summary
+// section and rank, its label, display unit and conversion. Alarms show only when raised.
 void print_summary(const ely_block* b, const std::string& warning) {
-    const double kwh = 3.6e6;
-    auto line = [](const char* label, double v, const char* unit, int decimals = 4) {
-        if (std::isfinite(v)) fmt::print("  {:<34}{:>14.{}f} {}\n", label, v, decimals, unit);
+    int32_t n = 0;
+    check(ely_block_variable_count(b, &n), "variables");
+    std::vector<std::pair<int32_t, int32_t>> rows;  // (rank, index)
+    for (int32_t i = 0; i < n; ++i) {
+        const ely_variable_info info = variable_info(b, i);
+        if (info.summary_rank > 0) rows.emplace_back(info.summary_rank, i);
+    }
+    std::sort(rows.begin(), rows.end());
+    std::string group;
+    bool alarms_open = false, any_alarm = false;
+    const auto close_alarms = [&] {
+        if (alarms_open && !any_alarm) fmt::print("  none\n");
+        alarms_open = false;
     };
-    fmt::print("Operating point\n");
-    line("stack temperature", get(b, "in.temperature") - 273.15, "degC", 2);
-    line("cathode / anode pressure", get(b, "in.pressure_cathode") / 1e5, "bar", 3);
-    line("", get(b, "in.pressure_anode") / 1e5, "bar", 3);
-    line("current density", get(b, "cell.current_density") / 1e4, "A/cm2", 4);
-    line("load (of rated current density)", 100 * get(b, "perf.load_fraction"), "%", 1);
-    fmt::print("Cell voltage breakdown\n");
-    line("reversible voltage", get(b, "cell.reversible_voltage"), "V");
-    line("anode activation", get(b, "cell.activation_anode"), "V");
-    line("cathode activation", get(b, "cell.activation_cathode"), "V");
-    line("ohmic (incl. degradation)", get(b, "cell.ohmic"), "V");
-    line("concentration", get(b, "cell.concentration"), "V");
-    line("cell voltage", get(b, "cell.voltage"), "V");
-    line("thermoneutral voltage", get(b, "cell.thermoneutral_voltage"), "V");
-    fmt::print("Stacks and plant\n");
-    line("DC current (all stacks)", get(b, "stack.current") / 1e3, "kA", 3);
-    line("stack voltage", get(b, "stack.voltage"), "V", 1);
-    line("DC power", get(b, "stack.power") / 1e6, "MW", 4);
-    line("AC power (rectifier, auxiliaries)", get(b, "plant.power") / 1e6, "MW", 4);
-    line("rectifier efficiency", 100 * get(b, "plant.rectifier_efficiency"), "%", 2);
-    fmt::print("Products and feeds\n");
-    line("hydrogen", get(b, "product.hydrogen") * 3600, "kg/h", 3);
-    line("oxygen", get(b, "product.oxygen") * 3600, "kg/h", 3);
-    line("chlorine", get(b, "product.chlorine") * 3600, "kg/h", 3);
-    line("caustic (100 % NaOH)", get(b, "product.caustic") * 3600, "kg/h", 3);
-    line("make-up water", get(b, "feed.water") * 3600, "kg/h", 3);
-    line("salt", get(b, "feed.salt") * 3600, "kg/h", 3);
-    line("water per hydrogen", get(b, "perf.water_per_hydrogen"), "kg/kg", 3);
-    fmt::print("Efficiency and heat\n");
-    line("Faraday efficiency", 100 * get(b, "cell.faraday_efficiency"), "%", 3);
-    line("caustic current efficiency", 100 * get(b, "cell.caustic_efficiency"), "%", 2);
-    line("specific energy, DC stack", get(b, "perf.specific_energy") / kwh, "kWh/kg", 2);
-    line("specific energy, AC plant", get(b, "perf.specific_energy_plant") / kwh, "kWh/kg", 2);
-    line("DC energy per tonne of chlorine", get(b, "perf.specific_energy_chlorine") / kwh * 1000, "kWh/t", 0);
-    line("efficiency (HHV, DC)", 100 * get(b, "perf.efficiency_hhv"), "%", 2);
-    line("heat duty (+ remove, - supply)", get(b, "heat.duty") / 1e3, "kW", 2);
-    fmt::print("Gas purity\n");
-    line("H2 in anode gas (dry)", 100 * get(b, "gas.h2_in_o2"), "mol %", 4);
-    line("O2 in cathode gas (dry)", 100 * get(b, "gas.o2_in_h2"), "mol %", 4);
-    line("O2 in chlorine (dry)", 100 * get(b, "gas.o2_in_cl2"), "mol %", 3);
-    fmt::print("Alarms\n");
-    const char* names[] = {"alarm.h2_in_o2_warning", "alarm.h2_in_o2_trip", "alarm.temperature_high",
-                           "alarm.current_density_high", "alarm.load_low", "alarm.extrapolated"};
-    bool any = false;
-    for (const char* n : names)
-        if (get(b, n) > 0) { fmt::print("  RAISED  {}\n", n); any = true; }
-    if (!any) fmt::print("  none\n");
+    for (const auto& [rank, i] : rows) {
+        const ely_variable_info info = variable_info(b, i);
+        if (group != info.summary_group) {
+            close_alarms();
+            group = info.summary_group;
+            fmt::print("{}\n", group);
+        }
+        double v = NAN;
+        check(ely_block_get(b, i, &v), info.name);
+        if (std::strncmp(info.name, "alarm.", 6) == 0) {
+            alarms_open = true;
+            if (v > 0) {
+                fmt::print("  RAISED  {}\n", info.name);
+                any_alarm = true;
+            }
+            continue;
+        }
+        if (!std::isfinite(v)) continue;
+        const double shown = v * info.display_scale + info.display_offset;
+        const char* unit = std::strcmp(info.display_unit, "1") == 0 ? "" : info.display_unit;
+        fmt::print("  {:<40}{:>14.6g} {}\n", info.label, shown, unit);
+    }
+    close_alarms();
     if (!warning.empty()) fmt::print("  ({})\n", warning);
     fmt::print("\n{}", kCautions);
 }
@@ -200,9 +188,7 @@ int command_solve(const Options& o) {
         check(ely_block_variable_count(h.p, &n), "variables");
         fmt::print("name,value,unit\n");
         for (int32_t i = 0; i < n; ++i) {
-            ely_variable_info info{};
-            info.struct_size = sizeof info;
-            check(ely_block_variable_info(h.p, i, &info), "variables");
+            const ely_variable_info info = variable_info(h.p, i);
             double v = NAN;
             check(ely_block_get(h.p, i, &v), info.name);
             fmt::print("{},{:.10g},{}\n", info.name, v, info.unit);
@@ -277,10 +263,10 @@ int command_variables(const Options& o) {
     check(ely_block_variable_count(h.p, &n), "variables");
     const char* causality[] = {"input", "output", "parameter"};
     for (int32_t i = 0; i < n; ++i) {
-        ely_variable_info info{};
-        info.struct_size = sizeof info;
-        check(ely_block_variable_info(h.p, i, &info), "variables");
-        fmt::print("{:<30} {:<8} {:<9} {}\n", info.name, info.unit, causality[info.causality], info.description);
+        const ely_variable_info info = variable_info(h.p, i);
+        const bool tunable = info.variability == ELY_VARIABILITY_TUNABLE;
+        fmt::print("{:<40} {:<12} {:<9}{} {}\n", info.name, info.unit, causality[info.causality],
+                   tunable ? " (tunable)" : "", info.description);
     }
     return 0;
 }

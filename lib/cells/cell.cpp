@@ -2,43 +2,29 @@
 
 #include <fmt/format.h>
 
-#include "cells/technologies.hpp"
 #include "base/check.hpp"
 
 namespace ely {
 
-const char* technology_name(Technology t) {
-    switch (t) {
-        case Technology::pem: return "pem";
-        case Technology::alkaline: return "alkaline";
-        case Technology::solid_oxide: return "solid_oxide";
-        case Technology::brine: return "brine";
-        case Technology::custom: return "custom";
-    }
-    return "?";
+void ReactionShares::assign(std::size_t n, double value) {
+    if (n > values_.size())
+        throw Error(ErrorKind::invalid_argument,
+                    fmt::format("{} half-reactions: a cell holds at most {} per electrode", n, kMaxReactions));
+    count_ = n;
+    for (std::size_t k = 0; k < n; ++k) values_[k] = value;
 }
 
-const std::vector<ParameterInfo>& cell_parameters(Technology technology) {
-    switch (technology) {
-        case Technology::pem: return pem_parameters();
-        case Technology::alkaline: return alkaline_parameters();
-        case Technology::solid_oxide: return solid_oxide_parameters();
-        case Technology::brine: return brine_parameters();
-        case Technology::custom: break;
-    }
-    throw Error(ErrorKind::invalid_argument, "the custom cell has no fixed parameter list; it is built from its reaction table");
+double ReactionShares::at(std::size_t k) const {
+    if (k >= count_) throw Error(ErrorKind::internal, fmt::format("reaction share {} of {}", k, count_));
+    return values_[k];
 }
 
-std::unique_ptr<Cell> make_cell(Technology technology, const ParameterValues& values) {
-    switch (technology) {
-        case Technology::pem: return make_pem_cell(values);
-        case Technology::alkaline: return make_alkaline_cell(values);
-        case Technology::solid_oxide: return make_solid_oxide_cell(values);
-        case Technology::brine: return make_brine_cell(values);
-        case Technology::custom: break;
-    }
-    throw Error(ErrorKind::invalid_argument, "the custom cell is built by make_custom_cell");
+const std::vector<VariableInfo>& Cell::own_outputs() const {
+    static const std::vector<VariableInfo> none;
+    return none;
 }
+
+void Cell::fill_own_outputs(const CellResult&, const PlantFlows&, double*) const {}
 
 uint32_t check_envelope(const Envelope& e, const OperatingPoint& p, const char* model) {
     const auto inside = [](double v, double lo, double hi) { return v >= lo && v <= hi; };  // false for NaN

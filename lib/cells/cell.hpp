@@ -7,21 +7,41 @@
 // voltage is the sum voltage = reversible + activation_anode + activation_cathode + ohmic
 // + concentration, exactly (the cells compute the parts and add them, never back out one).
 #include <array>
+#include <cstddef>
 #include <cstdint>
 #include <memory>
 #include <string>
 #include <vector>
 
+#include "base/variable_info.hpp"
 #include "cells/parameters.hpp"
 
 namespace ely {
 
-enum class Technology { pem, alkaline, solid_oxide, brine, custom };
-const char* technology_name(Technology t);
-
 /// Components carried in the streams. Aqueous NaOH/NaCl are solutes of the brine cell.
 enum Component : int { kH2 = 0, kO2, kH2O, kCl2, kNaOH, kNaCl, kComponentCount };
 using Fluxes = std::array<double, kComponentCount>;  // mol/(m² s)
+
+/// Shares of the half-reactions of a custom cell: a fixed-capacity list, so that evaluate()
+/// allocates nothing. At most kMaxReactions reactions per electrode (the config checks it).
+constexpr std::size_t kMaxReactions = 8;
+class ReactionShares {
+public:
+    void assign(std::size_t n, double value);  // throws when n > 2·kMaxReactions
+    std::size_t size() const { return count_; }
+    bool empty() const { return count_ == 0; }
+    double* data() { return values_.data(); }
+    const double* data() const { return values_.data(); }
+    double& operator[](std::size_t k) { return values_[k]; }
+    double operator[](std::size_t k) const { return values_[k]; }
+    double at(std::size_t k) const;  // throws out of range
+    const double* begin() const { return values_.data(); }
+    const double* end() const { return values_.data() + count_; }
+
+private:
+    std::array<double, 2 * kMaxReactions> values_;  // only the first count_ are set
+    std::size_t count_ = 0;
+};
 
 struct OperatingPoint {
     double current_density;   // A/m² of active area, >= 0
@@ -84,13 +104,21 @@ struct CellResult {
     uint32_t warnings = 0;  // CellWarning bits
 
     // Custom cells: one entry per half-reaction, its share of its electrode's current.
-    std::vector<double> reaction_current_efficiency;
+    ReactionShares reaction_current_efficiency;
+};
+
+/// Plant totals the unit layer hands a cell for the outputs the cell adds (all cells of all
+/// stacks): what leaves each side and what is consumed, mol/s, and the water moving with them.
+struct PlantFlows {
+    double active_area = 0;  // m², all cells of all stacks
+    Fluxes cathode{}, anode{}, consumed{};
+    double anode_vapour = 0;  // mol/s of water vapour in the wet anode gas
+    double drag = 0;          // mol/s of liquid water carried anode → cathode
 };
 
 class Cell {
 public:
     virtual ~Cell() = default;
-    virtual Technology technology() const = 0;
     virtual const Envelope& envelope() const = 0;
     /// Throws ely::Error for a point outside the hard envelope (naming the limit) and for a
     /// current density at or above the limiting current density.
@@ -102,14 +130,14 @@ public:
     /// exceeds the gas crossing the separator), A/m²; a hint, 0 when there is no such limit.
     /// Between 0 (open circuit, always accepted) and this value evaluate() throws.
     virtual double current_density_minimum(const OperatingPoint&) const { return 0.0; }
+
+    /// Outputs this cell adds to the block's variables beyond the common table (a brine cell's
+    /// brine loop, a custom cell's reaction shares): descriptions valid while the cell lives,
+    /// the same for every cell built from one plant description.
+    virtual const std::vector<VariableInfo>& own_outputs() const;
+    /// Their values at a result, in own_outputs() order; allocates nothing.
+    virtual void fill_own_outputs(const CellResult& result, const PlantFlows& flows, double* values) const;
 };
-
-/// Parameter descriptions of a technology (defaults with their sources).
-const std::vector<ParameterInfo>& cell_parameters(Technology technology);
-
-/// Builds a cell from validated parameter values of its technology. The custom cell is made
-/// by make_custom_cell (cells/custom.hpp) from its reaction table instead.
-std::unique_ptr<Cell> make_cell(Technology technology, const ParameterValues& values);
 
 /// Checks a point against an envelope: throws out_of_range naming the limit; returns the
 /// extrapolation warning bits for the soft limits.

@@ -6,6 +6,7 @@
 #include <string>
 
 #include "thermo/constants.hpp"
+#include "thermo/reaction.hpp"
 #include "base/error.hpp"
 
 namespace ely {
@@ -35,6 +36,18 @@ double activation_overpotential(const ElectrodeKinetics& k, bool tafel, double j
     const double j0 = exchange_current_density(k, t);
     return tafel ? tafel_overpotential(j, j0, k.alpha_forward, t)
                  : butler_volmer_overpotential(j, j0, k.alpha_forward, k.alpha_backward, t);
+}
+
+bool start_liquid_water_cell(CellResult& r, const OperatingPoint& p, double a_w) {
+    r.current_density = p.current_density;
+    r.reversible_voltage = reversible_voltage_liquid_water(p.temperature, p.pressure_anode, p.pressure_cathode, a_w);
+    r.thermoneutral_voltage = thermoneutral_voltage_hhv(p.temperature);
+    r.gases_saturated = true;
+    r.water_activity_anode = r.water_activity_cathode = a_w;
+    if (p.current_density != 0.0) return false;
+    r.voltage = r.reversible_voltage;
+    r.faraday_efficiency = 0.0;
+    return true;
 }
 
 double crossover_minimum_current_density(const CrossoverFluxes& x, const Recombination& r) {

@@ -25,6 +25,12 @@ double current_density_cap(double envelope_maximum, double limiting_current_dens
 double activation_overpotential(const ElectrodeKinetics& kinetics, bool tafel, double current_density,
                                 double temperature);
 
+/// Start of a liquid-fed water cell's evaluation at p: the reversible voltage with the wet product
+/// gases over an electrolyte of the given water activity, the HHV thermoneutral voltage, gases
+/// leaving saturated. Returns true at open circuit (j = 0), where the result is complete: the
+/// voltage is the reversible voltage and no gas is made (crossover is not described there).
+bool start_liquid_water_cell(CellResult& result, const OperatingPoint& point, double water_activity);
+
 /// Gas crossing the separator of a water cell, mol/(m² s): hydrogen to the anode side, oxygen
 /// to the cathode side. The hydrogen flux may rise with the electrode current density j_e
 /// (supersaturation of dissolved hydrogen at the cathode): N_H2(j_e) = hydrogen +

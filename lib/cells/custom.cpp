@@ -6,8 +6,11 @@
 
 #include <algorithm>
 #include <cmath>
+#include <deque>
 #include <fmt/format.h>
 #include <limits>
+#include <memory>
+#include <string>
 
 #include "base/check.hpp"
 #include "thermo/constants.hpp"
@@ -53,20 +56,54 @@ struct ElectrodeSolution {
     std::size_t main;  // index (within the electrode) of the reaction carrying the largest current
 };
 
+// Per half-reaction (anode first, then cathode) its share of the electrode current and its
+// product rate: "reaction.<electrode>_<n>.current_efficiency", "....product_rate". Shared by
+// copies of the cell, so the names stay where they are.
+struct ReactionOutputs {
+    std::deque<std::string> text;
+    std::vector<VariableInfo> info;
+};
+
+std::shared_ptr<const ReactionOutputs> describe_reactions(const CustomCellSpec& spec) {
+    auto out = std::make_shared<ReactionOutputs>();
+    const auto keep = [&](std::string text) { return out->text.emplace_back(std::move(text)).c_str(); };
+    auto add_for = [&](const std::vector<HalfReaction>& reactions, const char* electrode) {
+        for (std::size_t k = 0; k < reactions.size(); ++k) {
+            const auto& r = reactions[k];
+            const std::string base = fmt::format("reaction.{}_{}.", electrode, k + 1);
+            out->info.push_back(describe(keep(base + "current_efficiency"), "1", Causality::output,
+                                         keep(fmt::format("share of the {} current carried by '{}' (product {})",
+                                                          electrode, r.name, r.product)))
+                                    .labelled(keep(fmt::format("{}: share of current", r.name)))
+                                    .shown_in(display::percent));
+            out->info.push_back(describe(keep(base + "product_rate"), "kg/s", Causality::output,
+                                         keep(fmt::format("{} made by '{}', plant total (NaN without its molar mass)",
+                                                          r.product, r.name)))
+                                    .labelled(keep(fmt::format("{}: {} made", r.name, r.product)))
+                                    .scaled(1e-3)
+                                    .shown_in(display::kg_per_h));
+        }
+    };
+    add_for(spec.anode, "anode");
+    add_for(spec.cathode, "cathode");
+    return out;
+}
+
 class CustomCell final : public Cell {
 public:
-    explicit CustomCell(CustomCellSpec spec) : spec_(std::move(spec)) {
+    explicit CustomCell(CustomCellSpec spec) : spec_(std::move(spec)), outputs_(describe_reactions(spec_)) {
         has_species_ = true;
         for (const auto* side : {&spec_.anode, &spec_.cathode})
             for (const auto& h : *side) has_species_ = has_species_ && !h.species.empty();
     }
-    Technology technology() const override { return Technology::custom; }
     const Envelope& envelope() const override { return spec_.envelope; }
     std::unique_ptr<Cell> clone() const override { return std::make_unique<CustomCell>(*this); }
     double current_density_limit(const OperatingPoint&) const override {
         return std::min({spec_.envelope.current_density_max, limit_sum(spec_.anode), limit_sum(spec_.cathode)});
     }
     CellResult evaluate(const OperatingPoint& point) const override;
+    const std::vector<VariableInfo>& own_outputs() const override { return outputs_->info; }
+    void fill_own_outputs(const CellResult& r, const PlantFlows& flows, double* values) const override;
 
 private:
     static double limit_sum(const std::vector<HalfReaction>& reactions) {
@@ -81,7 +118,21 @@ private:
                                       double* u_k) const;
     CustomCellSpec spec_;
     bool has_species_ = false;  // every reaction has species: E_tn from their enthalpies
+    std::shared_ptr<const ReactionOutputs> outputs_;
 };
+
+void CustomCell::fill_own_outputs(const CellResult& r, const PlantFlows& flows, double* values) const {
+    const std::size_t na = spec_.anode.size();
+    for (std::size_t k = 0; k < r.reaction_current_efficiency.size(); ++k) {
+        const auto& reaction = k < na ? spec_.anode[k] : spec_.cathode[k - na];
+        const double share = r.reaction_current_efficiency[k];
+        values[2 * k] = share;
+        values[2 * k + 1] = reaction.product_molar_mass > 0
+                                ? custom_product_rate(reaction, share, r.current_density) * flows.active_area *
+                                      reaction.product_molar_mass
+                                : std::numeric_limits<double>::quiet_NaN();
+    }
+}
 
 ElectrodeSolution CustomCell::solve_electrode(const std::vector<HalfReaction>& reactions, bool anode, double j,
                                               double t, double* u_k) const {
@@ -182,7 +233,7 @@ CellResult CustomCell::evaluate(const OperatingPoint& p) const {
 
     const std::size_t na = spec_.anode.size(), nc = spec_.cathode.size();
     auto& shares = r.reaction_current_efficiency;
-    shares.assign(na + nc, 0.0);  // the one allocation of evaluate(); used as scratch first
+    shares.assign(na + nc, 0.0);  // used as scratch first
     for (std::size_t k = 0; k < na; ++k) shares[k] = half_reaction_equilibrium_potential(spec_.anode[k], true, t);
     for (std::size_t k = 0; k < nc; ++k)
         shares[na + k] = -half_reaction_equilibrium_potential(spec_.cathode[k], false, t);
@@ -345,6 +396,8 @@ std::vector<double> custom_product_rates(const CustomCellSpec& spec, const CellR
 std::unique_ptr<Cell> make_custom_cell(const CustomCellSpec& spec) {
     if (spec.anode.empty()) throw Error(ErrorKind::invalid_argument, "custom cell: the anode has no reactions");
     if (spec.cathode.empty()) throw Error(ErrorKind::invalid_argument, "custom cell: the cathode has no reactions");
+    if (spec.anode.size() > kMaxReactions || spec.cathode.size() > kMaxReactions)
+        throw Error(ErrorKind::invalid_argument, fmt::format("custom cell: at most {} reactions per electrode", kMaxReactions));
     for (std::size_t k = 0; k < spec.anode.size(); ++k) check_reaction(spec.anode[k], true, k);
     for (std::size_t k = 0; k < spec.cathode.size(); ++k) check_reaction(spec.cathode[k], false, k);
     require_finite(spec.area_specific_resistance, "custom cell: area-specific resistance");

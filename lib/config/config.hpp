@@ -4,9 +4,10 @@
 // Every failure is an ely::Error. parse_config throws ErrorKind::config and the message
 // starts with the JSON path of the offending value ("$.stack.cells: expected an integer,
 // got 2.5"; malformed JSON: "$.stack: malformed JSON at line 3, column 14: syntax error").
-// Numbers are SI; a string "number unit" is converted (config/units.hpp). The keys, their
-// units, limits and defaults live in one table in config.cpp that both the parser and
-// config_schema_markdown() read; docs/config.md is that text.
+// Numbers are SI; a string "number unit" is converted (config/units.hpp). The keys live in
+// the key tables (key_tables.cpp), which take the units, limits and defaults of the keys that
+// set variables from the variable table; the walk (config.cpp) and config_schema_markdown()
+// (config_docs.cpp) read them; docs/config.md holds that text.
 #include <string>
 #include <string_view>
 

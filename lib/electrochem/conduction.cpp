@@ -58,7 +58,7 @@ double koh_water_activity_balej(double molality, double temperature) {
 double bruggeman_conductivity(double conductivity, double void_fraction) {
     require_finite(conductivity, "electrolyte conductivity");
     require_finite(void_fraction, "void fraction");
-    require_within(void_fraction, 0.0, kBruggemanVoidFractionMax, "gas void fraction", "");
+    require_within(void_fraction, 0.0, 1.0, "non-conducting volume fraction", "");
     const double liquid = 1.0 - void_fraction;
     return conductivity * liquid * std::sqrt(liquid);
 }

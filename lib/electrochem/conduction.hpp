@@ -43,9 +43,9 @@ double koh_water_activity_balej(double molality, double temperature);
 // Gas bubbles in a liquid electrolyte
 // ---------------------------------------------------------------------------------------
 
-/// Bruggeman: σ_eff = σ·(1 − ε)^1.5 for a dispersion of non-conducting bubbles of void
-/// fraction 0 <= ε <= kBruggemanVoidFractionMax (the one limit of every gas-in-liquid gap).
-inline constexpr double kBruggemanVoidFractionMax = 0.9;
+/// Bruggeman: σ_eff = σ·(1 − ε)^1.5 for a conducting phase holding a volume fraction
+/// 0 <= ε <= 1 of non-conducting inclusions (gas bubbles in an electrolyte gap; the polymer
+/// around the water network of a membrane). The bubble model caps its own void fraction.
 double bruggeman_conductivity(double conductivity, double void_fraction);
 
 /// Void fraction of the gas–electrolyte layer between electrode and separator rising with

@@ -178,6 +178,10 @@ double bubbly_gap_resistance(double gap, double conductivity, double void_fracti
     require_finite(gap, "electrolyte gap");
     if (gap < 0.0) throw Error(ErrorKind::invalid_argument, fmt::format("electrolyte gap {:g} m is negative", gap));
     require_positive(conductivity, "electrolyte conductivity");
+    // A bubbly gap stays a liquid with bubbles up to a void fraction of about 0.9 (the cap of
+    // the alkaline bubble model's parameter, typical value, from memory); beyond it the
+    // Bruggeman dispersion picture does not hold.
+    require_within(void_fraction, 0.0, 0.9, "gas void fraction", "");
     return gap / bruggeman_conductivity(conductivity, void_fraction);
 }
 

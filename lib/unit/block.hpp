@@ -1,12 +1,15 @@
 #pragma once
-// The electrolyzer block: inputs, steady-state solve, outputs. Life cycle:
-//   Block(design) → set inputs → solve() → get outputs → set … → solve() …
-// Outputs can be read only while they belong to the current inputs (after a successful
-// solve and before the next set). A failed solve rolls the spec and inputs back to those of the last
-// successful solve, so the block always holds a consistent solved state (or none yet).
-#include <array>
+// The electrolyzer block: inputs and tunable parameters, steady-state solve, outputs. Life cycle:
+//   Block(design) → set inputs / tunable parameters → solve() → get outputs → set … → solve() …
+// Outputs can be read only while they belong to the current inputs (after a successful solve
+// and before the next set). A failed solve rolls the spec, the inputs and the parameters back to
+// those of the last successful solve, so the block always holds a consistent solved state (or
+// none yet). A failed set changes nothing.
+//
+// The work is split by concern: block.cpp (variables, set/get, parameters, the solve and its
+// rollback), spec_solve.cpp (the current density that meets the spec), streams.cpp (streams,
+// products, feeds, the energy balance, performance), alarms.cpp, report.cpp.
 #include <cstdint>
-#include <deque>
 #include <memory>
 #include <string>
 #include <string_view>
@@ -18,61 +21,90 @@
 namespace ely {
 
 struct SolveOutcome {
-    bool warning = false;     // an alarm or extrapolation flag is raised
-    std::string message;      // what was raised, for the host
+    bool warning = false;  // an alarm or extrapolation flag is raised
+    std::string message;   // what was raised, for the host
 };
 
 class Block {
 public:
     explicit Block(PlantDesign design);
 
+    /// The plant description as configured (tunable parameters set later are not in it).
     const PlantDesign& design() const { return design_; }
+    const TechnologyInfo& technology() const { return *design_.technology; }
+    /// The cell model in use: the configured one, or one rebuilt after a cell parameter was set.
+    const Cell& cell() const { return *cell_; }
 
-    // Variables are addressed by a dense index 0..count-1 over the variables of this
-    // block's technology, in table order.
-    int32_t variable_count() const { return static_cast<int32_t>(index_to_var_.size()); }
+    // Variables are addressed by a dense index 0..count-1: the table's variables that the
+    // technology has (table order), its cell parameters, then the outputs its cell adds.
+    int32_t variable_count() const;
     const VariableInfo& variable(int32_t index) const;
+    double start(int32_t index) const;  // the configured value of an input or parameter; NaN for outputs
+    /// Position (1, 2, ...) in the technology's summary and the heading of its section; 0 and
+    /// "" when the summary does not show the variable.
+    int32_t summary_rank(int32_t index) const;
+    const char* summary_group(int32_t index) const;
     int32_t find(std::string_view name) const;  // throws unknown_name
-    Var var_of(int32_t index) const;
 
-    void set(int32_t index, double value);  // inputs only; validated; throws, changing nothing
-    double get(int32_t index) const;        // outputs need a current solution
+    /// Inputs (any of them: the spec decides which drive input the solve reads) and tunable
+    /// parameters, checked against the table's limits (and, for a cell parameter, by rebuilding
+    /// the cell). Throws, changing nothing, for an output, a fixed parameter or a bad value.
+    void set(int32_t index, double value);
+    double get(int32_t index) const;  // outputs need a current solution
     void set_spec(Spec spec);
     Spec spec() const { return spec_; }
 
     SolveOutcome solve();  // throws on failure after rolling back
     bool solved() const { return outputs_current_; }
 
-    /// The solved state as a JSON object (inputs, outputs, alarms).
+    /// The solved state as a JSON object: technology, spec, the drive input it reads, name, and
+    /// every variable with its value (null when not a number) and unit.
     std::string report_json() const;
 
 private:
-    // Variables a configuration adds to the table: one current efficiency and one product rate
-    // per half-reaction of a custom cell ("reaction.cathode_1.current_efficiency", ...).
-    // Immutable once built and shared by clones, so the names stay valid while any clone lives.
-    struct ExtraVariables {
-        std::deque<std::string> text;
-        std::vector<VariableInfo> info;
+    enum class Kind : uint8_t { table, cell_parameter, own_output };
+    struct Slot {
+        Kind kind;
+        int32_t id;  // Var, parameter index or own-output index
     };
-    void add_reaction_variables();
-
+    struct Layout;  // per technology, built once (block.cpp)
     struct PointResult;
-    void evaluate_at(double current_density, PointResult& out) const;
+
+    Slot slot(int32_t index) const;
+    [[noreturn]] void bad_index(int32_t index) const;
+    void set_plant_parameter(Var v, double value);
+    void set_cell_parameter(std::size_t k, double value);
+    double rectifier_rating() const;
+
+    // spec_solve.cpp
     double max_current_density(double temperature, double p_anode, double p_cathode) const;
     double solve_current_density(double j_max);
+    void evaluate_at(double current_density, PointResult& out) const;
+    // streams.cpp
     void fill_outputs(const PointResult& r);
+    // alarms.cpp
+    void fill_alarms(const PointResult& r);
+    std::string alarm_message() const;
 
     PlantDesign design_;
-    std::vector<Var> index_to_var_;
-    std::shared_ptr<const ExtraVariables> extra_;
+    const Layout* layout_;  // static, per technology
+    std::size_t own_count_;
+    std::shared_ptr<const Cell> names_owner_;  // the configured cell: it owns the own outputs' descriptions
+    std::shared_ptr<const Cell> cell_;
+    std::shared_ptr<const ParameterValues> cell_values_;
     Spec spec_;
-    std::vector<double> v_;          // values by Var (table variables, then extra ones)
-    std::vector<double> last_good_;  // v_ at the last successful solve
-    Spec last_good_spec_;            // spec_ at the last successful solve
-    bool has_solution_ = false;
-    bool outputs_current_ = false;
+    std::vector<double> v_;  // by Var, then the own outputs
     double rectifier_rated_power_ = 0;
     double last_current_density_ = -1;  // warm start of the spec solves
+
+    // The last successful solve, for rollback.
+    std::vector<double> last_good_;
+    Spec last_good_spec_;
+    std::shared_ptr<const Cell> last_good_cell_;
+    std::shared_ptr<const ParameterValues> last_good_cell_values_;
+    double last_good_rating_ = 0;
+    bool has_solution_ = false;
+    bool outputs_current_ = false;
 };
 
 }  // namespace ely

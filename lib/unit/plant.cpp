@@ -2,15 +2,8 @@
 
 namespace ely {
 
-const char* spec_name(Spec spec) {
-    switch (spec) {
-        case Spec::current_density: return "current_density";
-        case Spec::current: return "current";
-        case Spec::power: return "power";
-        case Spec::hydrogen_rate: return "hydrogen_rate";
-        case Spec::voltage: return "voltage";
-    }
-    return "?";
+PlantDesign::PlantDesign() {
+    for (int i = 0; i < kVarCount; ++i) configured[static_cast<std::size_t>(i)] = variable_info(static_cast<Var>(i)).start;
 }
 
 }  // namespace ely

@@ -1,103 +1,348 @@
 #include "unit/variables.hpp"
 
+#include <deque>
+#include <fmt/format.h>
+#include <iterator>
+#include <map>
+#include <string>
+
 namespace ely {
 
-uint32_t tech_bit(Technology t) { return 1u << static_cast<unsigned>(t); }
-
 namespace {
-constexpr Causality I = Causality::input, O = Causality::output, P = Causality::parameter;
-constexpr uint32_t A = kTechAll, W = kTechWater, B = kTechBrine;
-constexpr uint32_t H2 = kTechWater | kTechBrine | kTechCustom;  // technologies that make hydrogen
 
-const VariableInfo kTable[kVarCount] = {
-    {"in.current_density", "A/m2", I, A, "cell current density (drive input when operating.spec = current_density)"},
-    {"in.current", "A", I, A, "DC current of all stacks (drive input when operating.spec = current)"},
-    {"in.power", "W", I, A, "DC power of all stacks (drive input when operating.spec = power)"},
-    {"in.hydrogen_rate", "kg/s", I, H2, "plant hydrogen product (drive input when operating.spec = hydrogen_rate)"},
-    {"in.voltage", "V", I, A, "cell voltage (drive input when operating.spec = voltage)"},
-    {"in.temperature", "K", I, A, "stack temperature"},
-    {"in.pressure_cathode", "Pa", I, A, "cathode (hydrogen side) pressure, absolute"},
-    {"in.pressure_anode", "Pa", I, A, "anode (oxygen or chlorine side) pressure, absolute"},
-    {"in.hours_operated", "h", I, A, "operating hours, for degradation"},
-    {"in.feed_temperature", "K", I, A, "temperature of the make-up water or brine entering the plant"},
+constexpr double kInf = std::numeric_limits<double>::infinity();
+constexpr double kNotGiven = std::numeric_limits<double>::quiet_NaN();
 
-    {"param.cells", "1", P, A, "cells in series per stack"},
-    {"param.stacks", "1", P, A, "stacks in parallel"},
-    {"param.active_area", "m2", P, A, "active area per cell"},
-    {"param.current_density_max", "A/m2", P, A, "maximum current density of the plant (configuration)"},
+constexpr VariableInfo input(const char* name, const char* unit, const char* description) {
+    return describe(name, unit, Causality::input, description);
+}
+constexpr VariableInfo output(const char* name, const char* unit, const char* description) {
+    return describe(name, unit, Causality::output, description);
+}
+/// Fixed by the plant description (structural): readable, not settable.
+constexpr VariableInfo structural(const char* name, const char* unit, const char* description) {
+    return describe(name, unit, Causality::parameter, description);
+}
+/// Settable between solves through Block::set with the config's limits.
+constexpr VariableInfo tunable(const char* name, const char* unit, const char* description) {
+    return describe(name, unit, Causality::parameter, description).with(Variability::tunable);
+}
+/// An alarm: 0 or 1; its label is the text the solve's warning message gives when it is raised.
+constexpr VariableInfo alarm(const char* name, const char* message, const char* description) {
+    return describe(name, "1", Causality::output, description).with(Variability::discrete).within(0, 1).labelled(message);
+}
+constexpr VariableInfo fraction(const char* name, const char* description) {
+    return output(name, "mol/mol", description).within(0, 1).scaled(0.1).shown_in(display::percent);
+}
 
-    {"cell.voltage", "V", O, A, "cell voltage: reversible + activation (anode, cathode) + ohmic + concentration"},
-    {"cell.reversible_voltage", "V", O, A, "reversible (Nernst) voltage at the operating temperature and pressures"},
-    {"cell.thermoneutral_voltage", "V", O, A, "thermoneutral voltage of the cell reaction (HHV basis for liquid feed)"},
-    {"cell.activation_anode", "V", O, A, "anode activation overpotential"},
-    {"cell.activation_cathode", "V", O, A, "cathode activation overpotential"},
-    {"cell.ohmic", "V", O, A, "ohmic loss, including the degradation rise"},
-    {"cell.concentration", "V", O, A, "concentration (mass-transport) overpotential"},
-    {"cell.degradation", "V", O, A, "part of cell.ohmic due to operating hours"},
-    {"cell.current_density", "A/m2", O, A, "cell current density at the solved point"},
-    {"cell.faraday_efficiency", "1", O, A, "Faraday efficiency, hydrogen basis"},
-    {"cell.caustic_efficiency", "1", O, B, "caustic current efficiency"},
-    {"cell.chlorine_efficiency", "1", O, B, "chlorine current efficiency"},
+constexpr uint32_t H2 = kMakesHydrogen, O2 = kMakesOxygen, BRINE = kBrineProducts;
 
-    {"stack.current", "A", O, A, "DC current of all stacks (each stack carries its share)"},
-    {"stack.voltage", "V", O, A, "voltage across the stacks (cells in series per stack)"},
-    {"stack.power", "W", O, A, "DC power of all stacks"},
-    {"plant.power", "W", O, A, "AC power drawn by the plant: stacks, rectifier losses, auxiliaries"},
-    {"plant.rectifier_loss", "W", O, A, "rectifier losses"},
-    {"plant.rectifier_efficiency", "1", O, A, "DC power over the AC power the rectifier draws"},
-    {"plant.auxiliary_power", "W", O, A, "auxiliary (balance-of-plant) power"},
-
-    {"product.hydrogen", "kg/s", O, H2, "hydrogen in the cathode product, dry basis"},
-    {"product.oxygen", "kg/s", O, W, "oxygen in the anode product, dry basis"},
-    {"product.chlorine", "kg/s", O, B, "chlorine in the anode product, dry basis"},
-    {"product.caustic", "kg/s", O, B, "sodium hydroxide made, 100 % basis"},
-    {"product.caustic_solution", "kg/s", O, B, "caustic solution leaving at its configured strength"},
-    {"feed.water", "kg/s", O, A, "net make-up water: reaction + vapour leaving with the gases + water not returned"},
-    {"feed.salt", "kg/s", O, B, "sodium chloride consumed"},
-
-    {"stream.cathode.mass_flow", "kg/s", O, A, "cathode product stream, wet"},
-    {"stream.cathode.temperature", "K", O, A, "cathode product stream temperature"},
-    {"stream.cathode.pressure", "Pa", O, A, "cathode product stream pressure"},
-    {"stream.cathode.x_h2", "mol/mol", O, A, "hydrogen mole fraction of the wet cathode gas"},
-    {"stream.cathode.x_o2", "mol/mol", O, A, "oxygen mole fraction of the wet cathode gas"},
-    {"stream.cathode.x_h2o", "mol/mol", O, A, "water vapour mole fraction of the wet cathode gas"},
-    {"stream.anode.mass_flow", "kg/s", O, A, "anode product stream, wet (gas only)"},
-    {"stream.anode.temperature", "K", O, A, "anode product stream temperature"},
-    {"stream.anode.pressure", "Pa", O, A, "anode product stream pressure"},
-    {"stream.anode.x_o2", "mol/mol", O, A, "oxygen mole fraction of the wet anode gas"},
-    {"stream.anode.x_h2", "mol/mol", O, A, "hydrogen mole fraction of the wet anode gas"},
-    {"stream.anode.x_cl2", "mol/mol", O, B, "chlorine mole fraction of the wet anode gas"},
-    {"stream.anode.x_h2o", "mol/mol", O, A, "water vapour mole fraction of the wet anode gas"},
-    {"stream.brine_feed.mass_flow", "kg/s", O, B,
-     "resaturated brine fed to the anolyte (internal brine loop; the net feeds are feed.salt and feed.water)"},
-    {"stream.depleted_brine.mass_flow", "kg/s", O, B, "depleted brine leaving the anolyte (internal brine loop)"},
-    {"stream.depleted_brine.nacl_mass_fraction", "1", O, B, "NaCl mass fraction of the depleted brine"},
-
-    {"gas.h2_in_o2", "mol/mol", O, A, "hydrogen in the dry anode gas"},
-    {"gas.o2_in_h2", "mol/mol", O, A, "oxygen in the dry cathode gas"},
-    {"gas.o2_in_cl2", "mol/mol", O, B, "oxygen in the dry chlorine (anode) gas"},
-
-    {"heat.duty", "W", O, A, "heat to remove to hold the stack temperature (negative: heat to supply)"},
-    {"heat.loss", "W", O, A, "heat lost to ambient"},
-
-    {"perf.specific_energy", "J/kg", O, H2, "DC stack energy per kg of hydrogen product"},
-    {"perf.specific_energy_plant", "J/kg", O, H2, "AC plant energy per kg of hydrogen product"},
-    {"perf.efficiency_hhv", "1", O, H2, "hydrogen product HHV at 25 degC over DC stack power"},
-    {"perf.efficiency_lhv", "1", O, H2, "hydrogen product LHV at 25 degC over DC stack power"},
-    {"perf.specific_energy_chlorine", "J/kg", O, B, "DC stack energy per kg of chlorine product"},
-    {"perf.load_fraction", "1", O, A, "current density over the maximum current density"},
-    {"perf.water_per_hydrogen", "1", O, H2, "make-up water per hydrogen product, kg/kg"},
-
-    {"alarm.h2_in_o2_warning", "1", O, A, "1 when hydrogen in the anode gas is at or above the warning level"},
-    {"alarm.h2_in_o2_trip", "1", O, A, "1 when hydrogen in the anode gas is at or above the trip level"},
-    {"alarm.temperature_high", "1", O, A, "1 when the stack temperature is above its limit"},
-    {"alarm.current_density_high", "1", O, A, "1 when the current density is above the rated maximum"},
-    {"alarm.load_low", "1", O, A, "1 when the load is below the minimum load fraction"},
-    {"alarm.extrapolated", "1", O, A, "1 when the cell model runs outside the range its parameters were fitted in"},
-    {"alarm.any", "1", O, A, "1 when any alarm above is raised"},
+struct Entry {
+    Var var;
+    VariableInfo info;
 };
+
+// clang-format off
+constexpr Entry kTable[] = {
+    {in_current_density, input("in.current_density", "A/m2", "cell current density (the drive input when operating.spec is current_density)")
+        .at_least(0).starts(1e4).scaled(1e4).labelled("current density (set)").shown_in(display::A_per_cm2)
+        .configured_by("$.operating.current_density")},
+    {in_current, input("in.current", "A", "DC current of all stacks together (the drive input when operating.spec is current)")
+        .at_least(0).starts(kNotGiven).scaled(1e4).labelled("DC current, all stacks (set)").shown_in(display::kA)
+        .configured_by("$.operating.current")},
+    {in_power, input("in.power", "W", "DC power of all stacks together (the drive input when operating.spec is power)")
+        .at_least(0).starts(kNotGiven).scaled(1e6).labelled("DC power, all stacks (set)").shown_in(display::MW)
+        .configured_by("$.operating.power")},
+    {in_hydrogen_rate, input("in.hydrogen_rate", "kg/s", "hydrogen product of the plant (the drive input when operating.spec is hydrogen_rate)")
+        .needing(H2).at_least(0).starts(kNotGiven).scaled(1e-2).labelled("hydrogen rate (set)").shown_in(display::kg_per_h)
+        .configured_by("$.operating.hydrogen_rate")},
+    {in_voltage, input("in.voltage", "V", "cell voltage (the drive input when operating.spec is voltage)")
+        .above(0).starts(kNotGiven).scaled(2).labelled("cell voltage (set)").configured_by("$.operating.voltage")},
+    {in_temperature, input("in.temperature", "K", "stack temperature; within the cell model's envelope")
+        .above(0).scaled(350).labelled("stack temperature").shown_in(display::degC)
+        .configured_by("$.operating.temperature")},
+    {in_pressure_cathode, input("in.pressure_cathode", "Pa", "cathode (hydrogen side) pressure, absolute; within the cell model's envelope")
+        .above(0).starts(101325).scaled(1e5).labelled("cathode pressure").shown_in(display::bar)
+        .configured_by("$.operating.pressure_cathode")},
+    {in_pressure_anode, input("in.pressure_anode", "Pa", "anode (oxygen or chlorine side) pressure, absolute; within the cell model's envelope")
+        .above(0).starts(101325).scaled(1e5).labelled("anode pressure").shown_in(display::bar)
+        .configured_by("$.operating.pressure_anode")},
+    {in_hours_operated, input("in.hours_operated", "h", "operating hours so far, for the degradation")
+        .at_least(0).starts(0).scaled(1e4).labelled("operating hours").configured_by("$.operating.hours_operated")},
+    {in_feed_temperature, input("in.feed_temperature", "K", "temperature of the make-up water (or brine, or steam) entering the plant")
+        .within(273.15, 1273.15).starts(298.15).scaled(300).labelled("feed temperature").shown_in(display::degC)
+        .configured_by("$.plant.thermal.feed_temperature")},
+
+    {par_cells, structural("param.cells", "1", "cells in series per stack")
+        .within(1, 10000).scaled(100).labelled("cells per stack").configured_by("$.stack.cells")},
+    {par_stacks, structural("param.stacks", "1", "identical stacks in parallel")
+        .within(1, 1000).starts(1).labelled("stacks").configured_by("$.stack.stacks")},
+    // 1e-6 m2 (0.01 cm2) is far below a laboratory cell (common practice: lab cells have a few cm2).
+    {par_active_area, structural("param.active_area", "m2", "active area per cell")
+        .within(1e-6, 100).scaled(0.1).labelled("active area per cell").configured_by("$.stack.active_area")},
+    {par_current_density_max, tunable("param.current_density_max", "A/m2",
+        "highest current density of the plant; 0 in the plant description (or when set) = the cell model's own maximum, "
+        "which is then the value")
+        .at_least(0).starts(0).scaled(2e4).labelled("rated current density").shown_in(display::A_per_cm2)
+        .configured_by("$.plant.limits.current_density_max")},
+    {par_min_load_fraction, tunable("param.limits.min_load_fraction", "1",
+        "minimum load as a fraction of the maximum current density; below it an alarm is raised")
+        .within(0, 1).starts(0.1).scaled(0.1).labelled("minimum load").shown_in(display::percent)
+        .configured_by("$.plant.limits.min_load_fraction")},
+    {par_temperature_max, tunable("param.limits.temperature_max", "K",
+        "highest stack temperature of the plant, above it an alarm; 0 = the cell model's envelope")
+        .at_least(0).starts(0).scaled(350).labelled("temperature limit").configured_by("$.plant.limits.temperature_max")},
+    {par_rectifier_rated_power, tunable("param.rectifier.rated_power", "W",
+        "rated DC power of the plant's rectifier; 0 = sized to the stacks at their maximum current density at the "
+        "configured operating point")
+        .at_least(0).starts(0).scaled(1e6).labelled("rectifier rating").shown_in(display::MW)
+        .configured_by("$.plant.rectifier.rated_power")},
+    {par_rectifier_loss_no_load, tunable("param.rectifier.loss_no_load", "1",
+        "a0 of the rectifier losses P_rated (a0 + a1 x + a2 x^2), x = P_DC/P_rated, the usual split of converter "
+        "losses (common practice; default typical value, from memory)")
+        .within(0, 1).starts(0.005).scaled(0.01).labelled("rectifier no-load loss").shown_in(display::percent)
+        .configured_by("$.plant.rectifier.loss_no_load")},
+    {par_rectifier_loss_linear, tunable("param.rectifier.loss_linear", "1", "a1 of the rectifier losses (typical value, from memory)")
+        .within(0, 1).starts(0.010).scaled(0.01).labelled("rectifier linear loss").shown_in(display::percent)
+        .configured_by("$.plant.rectifier.loss_linear")},
+    {par_rectifier_loss_quadratic, tunable("param.rectifier.loss_quadratic", "1",
+        "a2 of the rectifier losses (typical value, from memory: about 97 % efficiency at rated load with a0, a1)")
+        .within(0, 1).starts(0.015).scaled(0.01).labelled("rectifier quadratic loss").shown_in(display::percent)
+        .configured_by("$.plant.rectifier.loss_quadratic")},
+    {par_auxiliaries_fixed, tunable("param.auxiliaries.fixed", "W", "fixed balance-of-plant power, AC")
+        .at_least(0).starts(0).scaled(1e4).labelled("auxiliaries, fixed").shown_in(display::kW)
+        .configured_by("$.plant.auxiliaries.fixed")},
+    {par_auxiliaries_proportional, tunable("param.auxiliaries.proportional", "1",
+        "balance-of-plant power as a fraction of the DC stack power (typical value, from memory)")
+        .within(0, 1).starts(0.03).scaled(0.03).labelled("auxiliaries, proportional").shown_in(display::percent)
+        .configured_by("$.plant.auxiliaries.proportional")},
+    {par_alarms_h2_in_o2_warning, tunable("param.alarms.h2_in_o2_warning", "1",
+        "H2 in the dry anode gas, mol/mol, that raises a warning (a quarter of the lower flammability limit, common "
+        "practice); must be below the trip level")
+        .above(0).at_most(1).starts(0.01).scaled(0.01).labelled("H2-in-O2 warning level").shown_in(display::percent)
+        .configured_by("$.plant.alarms.h2_in_o2_warning")},
+    {par_alarms_h2_in_o2_trip, tunable("param.alarms.h2_in_o2_trip", "1",
+        "H2 in the dry anode gas, mol/mol, that trips the plant (half the lower flammability limit, common practice); "
+        "must be below the lower flammability limit")
+        .above(0).at_most(1).starts(0.02).scaled(0.02).labelled("H2-in-O2 trip level").shown_in(display::percent)
+        .configured_by("$.plant.alarms.h2_in_o2_trip")},
+    {par_alarms_lower_flammability_limit, tunable("param.alarms.lower_flammability_limit", "1",
+        "lower flammability limit of H2 in O2, mol/mol (about 4 %, from memory)")
+        .above(0).at_most(1).starts(0.04).scaled(0.04).labelled("H2-in-O2 flammability limit").shown_in(display::percent)
+        .configured_by("$.plant.alarms.lower_flammability_limit")},
+    {par_degradation_voltage_rate, tunable("param.degradation.voltage_rate", "V/h",
+        "cell-voltage rise per operating hour (added to the ohmic loss)")
+        .at_least(0).starts(0).scaled(1e-6).labelled("voltage degradation rate").shown_in(display::uV_per_h)
+        .configured_by("$.plant.degradation.voltage_rate")},
+    {par_degradation_resistance_rate, tunable("param.degradation.resistance_rate", "ohm m2/h",
+        "area-specific-resistance rise per operating hour")
+        .at_least(0).starts(0).scaled(1e-9).labelled("resistance degradation rate")
+        .configured_by("$.plant.degradation.resistance_rate")},
+    {par_heat_loss_coefficient, tunable("param.thermal.heat_loss_coefficient", "W/K",
+        "heat loss to ambient per stack and kelvin of stack-to-ambient difference")
+        .at_least(0).starts(0).scaled(10).labelled("heat loss coefficient per stack")
+        .configured_by("$.plant.thermal.heat_loss_coefficient")},
+    {par_ambient_temperature, tunable("param.thermal.ambient_temperature", "K", "ambient temperature for the heat loss")
+        .within(223.15, 373.15).starts(298.15).scaled(300).labelled("ambient temperature").shown_in(display::degC)
+        .configured_by("$.plant.thermal.ambient_temperature")},
+
+    {cell_voltage, output("cell.voltage", "V", "cell voltage: reversible + activation (anode, cathode) + ohmic + concentration")
+        .scaled(2).labelled("cell voltage")},
+    {cell_reversible_voltage, output("cell.reversible_voltage", "V", "reversible (Nernst) voltage at the operating temperature and pressures")
+        .scaled(1.2).labelled("reversible voltage")},
+    {cell_thermoneutral_voltage, output("cell.thermoneutral_voltage", "V", "thermoneutral voltage of the cell reaction (HHV basis for liquid feed)")
+        .scaled(1.5).labelled("thermoneutral voltage")},
+    {cell_activation_anode, output("cell.activation_anode", "V", "anode activation overpotential")
+        .scaled(0.3).labelled("anode activation")},
+    {cell_activation_cathode, output("cell.activation_cathode", "V", "cathode activation overpotential")
+        .scaled(0.1).labelled("cathode activation")},
+    {cell_ohmic, output("cell.ohmic", "V", "ohmic loss, including the degradation rise")
+        .scaled(0.2).labelled("ohmic (incl. degradation)")},
+    {cell_concentration, output("cell.concentration", "V", "concentration (mass-transport) overpotential")
+        .scaled(0.01).labelled("concentration")},
+    {cell_degradation, output("cell.degradation", "V", "part of cell.ohmic due to operating hours")
+        .scaled(0.01).labelled("degradation (part of ohmic)")},
+    {cell_current_density, output("cell.current_density", "A/m2", "cell current density at the solved point")
+        .scaled(1e4).labelled("current density").shown_in(display::A_per_cm2)},
+    {cell_faraday_efficiency, output("cell.faraday_efficiency", "1", "Faraday efficiency, hydrogen basis")
+        .labelled("Faraday efficiency").shown_in(display::percent)},
+    {cell_caustic_efficiency, output("cell.caustic_efficiency", "1", "caustic current efficiency")
+        .needing(BRINE).labelled("caustic current efficiency").shown_in(display::percent)},
+    {cell_chlorine_efficiency, output("cell.chlorine_efficiency", "1", "chlorine current efficiency")
+        .needing(BRINE).labelled("chlorine current efficiency").shown_in(display::percent)},
+
+    {stack_current, output("stack.current", "A", "DC current of all stacks together (each stack carries its share)")
+        .scaled(1e4).labelled("DC current (all stacks)").shown_in(display::kA)},
+    {stack_voltage, output("stack.voltage", "V", "voltage across the stacks (cells in series per stack)")
+        .scaled(200).labelled("stack voltage")},
+    {stack_power, output("stack.power", "W", "DC power of all stacks together")
+        .scaled(1e6).labelled("DC power").shown_in(display::MW)},
+    {plant_power, output("plant.power", "W", "AC power drawn by the plant: stacks, rectifier losses, auxiliaries")
+        .scaled(1e6).labelled("AC power (rectifier, auxiliaries)").shown_in(display::MW)},
+    {plant_rectifier_loss, output("plant.rectifier_loss", "W", "rectifier losses")
+        .scaled(1e4).labelled("rectifier loss").shown_in(display::kW)},
+    {plant_rectifier_efficiency, output("plant.rectifier_efficiency", "1", "DC power over the AC power the rectifier draws")
+        .labelled("rectifier efficiency").shown_in(display::percent)},
+    {plant_auxiliary_power, output("plant.auxiliary_power", "W", "auxiliary (balance-of-plant) power")
+        .scaled(1e4).labelled("auxiliary power").shown_in(display::kW)},
+
+    {product_hydrogen, output("product.hydrogen", "kg/s", "hydrogen in the cathode product, dry basis")
+        .needing(H2).scaled(1e-2).labelled("hydrogen").shown_in(display::kg_per_h)},
+    {product_oxygen, output("product.oxygen", "kg/s", "oxygen in the anode product, dry basis")
+        .needing(O2).scaled(1e-1).labelled("oxygen").shown_in(display::kg_per_h)},
+    {product_chlorine, output("product.chlorine", "kg/s", "chlorine in the anode product, dry basis")
+        .needing(BRINE).scaled(1e-1).labelled("chlorine").shown_in(display::kg_per_h)},
+    {product_caustic, output("product.caustic", "kg/s", "sodium hydroxide made, 100 % basis")
+        .needing(BRINE).scaled(1e-1).labelled("caustic (100 % NaOH)").shown_in(display::kg_per_h)},
+    {product_caustic_solution, output("product.caustic_solution", "kg/s", "caustic solution leaving at its configured strength")
+        .needing(BRINE).scaled(1e-1).labelled("caustic solution").shown_in(display::kg_per_h)},
+    {feed_water, output("feed.water", "kg/s", "net make-up water: reaction + vapour leaving with the gases + water not returned")
+        .scaled(1e-1).labelled("make-up water").shown_in(display::kg_per_h)},
+    {feed_salt, output("feed.salt", "kg/s", "sodium chloride consumed")
+        .needing(BRINE).scaled(1e-1).labelled("salt").shown_in(display::kg_per_h)},
+
+    {stream_cathode_mass_flow, output("stream.cathode.mass_flow", "kg/s", "cathode product stream, wet")
+        .scaled(1e-2).labelled("cathode gas (wet)").shown_in(display::kg_per_h)},
+    {stream_cathode_temperature, output("stream.cathode.temperature", "K", "cathode product stream temperature")
+        .scaled(350).labelled("cathode gas temperature").shown_in(display::degC)},
+    {stream_cathode_pressure, output("stream.cathode.pressure", "Pa", "cathode product stream pressure")
+        .scaled(1e5).labelled("cathode gas pressure").shown_in(display::bar)},
+    {stream_cathode_x_h2, fraction("stream.cathode.x_h2", "hydrogen mole fraction of the wet cathode gas").labelled("cathode gas H2")},
+    {stream_cathode_x_o2, fraction("stream.cathode.x_o2", "oxygen mole fraction of the wet cathode gas").labelled("cathode gas O2")},
+    {stream_cathode_x_h2o, fraction("stream.cathode.x_h2o", "water vapour mole fraction of the wet cathode gas").labelled("cathode gas H2O")},
+    {stream_anode_mass_flow, output("stream.anode.mass_flow", "kg/s", "anode product stream, wet (gas only)")
+        .scaled(1e-1).labelled("anode gas (wet)").shown_in(display::kg_per_h)},
+    {stream_anode_temperature, output("stream.anode.temperature", "K", "anode product stream temperature")
+        .scaled(350).labelled("anode gas temperature").shown_in(display::degC)},
+    {stream_anode_pressure, output("stream.anode.pressure", "Pa", "anode product stream pressure")
+        .scaled(1e5).labelled("anode gas pressure").shown_in(display::bar)},
+    {stream_anode_x_o2, fraction("stream.anode.x_o2", "oxygen mole fraction of the wet anode gas").labelled("anode gas O2")},
+    {stream_anode_x_h2, fraction("stream.anode.x_h2", "hydrogen mole fraction of the wet anode gas").labelled("anode gas H2")},
+    {stream_anode_x_cl2, fraction("stream.anode.x_cl2", "chlorine mole fraction of the wet anode gas").needing(BRINE).labelled("anode gas Cl2")},
+    {stream_anode_x_h2o, fraction("stream.anode.x_h2o", "water vapour mole fraction of the wet anode gas").labelled("anode gas H2O")},
+
+    {gas_h2_in_o2, fraction("gas.h2_in_o2", "hydrogen in the dry anode gas").scaled(0.01).labelled("H2 in anode gas (dry)")},
+    {gas_o2_in_h2, fraction("gas.o2_in_h2", "oxygen in the dry cathode gas").scaled(0.001).labelled("O2 in cathode gas (dry)")},
+    {gas_o2_in_cl2, fraction("gas.o2_in_cl2", "oxygen in the dry chlorine (anode) gas").needing(BRINE).scaled(0.01).labelled("O2 in chlorine (dry)")},
+
+    {heat_duty, output("heat.duty", "W", "heat to remove to hold the stack temperature (negative: heat to supply)")
+        .scaled(1e5).labelled("heat duty (+ remove, - supply)").shown_in(display::kW)},
+    {heat_loss, output("heat.loss", "W", "heat lost to ambient")
+        .scaled(1e3).labelled("heat lost to ambient").shown_in(display::kW)},
+
+    {perf_specific_energy, output("perf.specific_energy", "J/kg", "DC stack energy per kg of hydrogen product")
+        .needing(H2).scaled(2e8).labelled("specific energy, DC stack").shown_in(display::kWh_per_kg)},
+    {perf_specific_energy_plant, output("perf.specific_energy_plant", "J/kg", "AC plant energy per kg of hydrogen product")
+        .needing(H2).scaled(2e8).labelled("specific energy, AC plant").shown_in(display::kWh_per_kg)},
+    {perf_efficiency_hhv, output("perf.efficiency_hhv", "1", "hydrogen product HHV at 25 degC over DC stack power")
+        .needing(H2).labelled("efficiency (HHV, DC)").shown_in(display::percent)},
+    {perf_efficiency_lhv, output("perf.efficiency_lhv", "1", "hydrogen product LHV at 25 degC over DC stack power")
+        .needing(H2).labelled("efficiency (LHV, DC)").shown_in(display::percent)},
+    {perf_specific_energy_chlorine, output("perf.specific_energy_chlorine", "J/kg", "DC stack energy per kg of chlorine product")
+        .needing(BRINE).scaled(1e7).labelled("DC energy per tonne of chlorine").shown_in(display::kWh_per_t)},
+    {perf_load_fraction, output("perf.load_fraction", "1", "current density over the maximum current density")
+        .scaled(0.5).labelled("load (of rated current density)").shown_in(display::percent)},
+    {perf_water_per_hydrogen, output("perf.water_per_hydrogen", "1", "make-up water per hydrogen product, kg/kg")
+        .needing(H2).scaled(9).labelled("water per hydrogen").shown_in(display::kg_per_kg)},
+
+    {alarm_h2_in_o2_warning, alarm("alarm.h2_in_o2_warning", "hydrogen in the anode gas at or above the warning level",
+        "1 when hydrogen in the anode gas is at or above the warning level")},
+    {alarm_h2_in_o2_trip, alarm("alarm.h2_in_o2_trip", "hydrogen in the anode gas at or above the trip level",
+        "1 when hydrogen in the anode gas is at or above the trip level")},
+    {alarm_temperature_high, alarm("alarm.temperature_high", "stack temperature above its limit",
+        "1 when the stack temperature is above its limit")},
+    {alarm_current_density_high, alarm("alarm.current_density_high", "current density above the rated maximum",
+        "1 when the current density is above the rated maximum")},
+    {alarm_load_low, alarm("alarm.load_low", "load below the minimum load",
+        "1 when the load is below the minimum load fraction")},
+    {alarm_extrapolated, alarm("alarm.extrapolated", "cell model extrapolated beyond its fitted range",
+        "1 when the cell model runs outside the range its parameters were fitted in")},
+    {alarm_any, alarm("alarm.any", "an alarm is raised", "1 when any alarm above is raised")},
+};
+// clang-format on
+
+constexpr bool in_enum_order() {
+    for (int i = 0; i < static_cast<int>(std::size(kTable)); ++i)
+        if (kTable[i].var != i) return false;
+    return true;
+}
+static_assert(std::size(kTable) == kVarCount, "one table entry per Var");
+static_assert(in_enum_order(), "table entries in the order of the Var enum");
+
+std::string label_of_key(const char* key) {
+    std::string s(key);
+    for (char& c : s)
+        if (c == '_') c = ' ';
+    return s;
+}
+
+// The text behind cell_parameter_variables(): built once for every technology of the registry.
+struct CellParameterTables {
+    std::deque<std::string> text;
+    std::map<const TechnologyInfo*, std::vector<VariableInfo>> variables;
+};
+
+const CellParameterTables& cell_parameter_tables() {
+    static const CellParameterTables tables = [] {
+        CellParameterTables t;
+        const auto keep = [&](std::string s) { return t.text.emplace_back(std::move(s)).c_str(); };
+        for (const auto& tech : technologies()) {
+            auto& list = t.variables[&tech];
+            if (!tech.parameters) continue;
+            for (const auto& p : tech.parameters()) {
+                VariableInfo v = tunable(keep(fmt::format("param.cell.{}", p.key)), p.unit,
+                                         keep(fmt::format("{} (default: {})", p.description, p.source)))
+                                     .within(p.min, p.max)
+                                     .starts(p.default_value)
+                                     .scaled(p.default_value != 0.0 ? std::fabs(p.default_value)
+                                                                    : (p.max > 0 && std::isfinite(p.max) ? p.max : 1.0))
+                                     .labelled(keep(label_of_key(p.key)))
+                                     .configured_by(keep(fmt::format("$.cell.{}", p.key)));
+                list.push_back(v);
+            }
+        }
+        return t;
+    }();
+    return tables;
+}
+
 }  // namespace
 
-const VariableInfo& variable_info(Var v) { return kTable[v]; }
+const VariableInfo& variable_info(Var v) { return kTable[v].info; }
+
+bool technology_has(const TechnologyInfo& technology, const VariableInfo& variable) {
+    return technology.has(variable.needs);
+}
+
+const std::vector<VariableInfo>& cell_parameter_variables(const TechnologyInfo& technology) {
+    return cell_parameter_tables().variables.at(&technology);
+}
+
+const std::vector<SpecInfo>& specs() {
+    static const std::vector<SpecInfo> all = {
+        {Spec::current_density, "current_density", in_current_density},
+        {Spec::current, "current", in_current},
+        {Spec::power, "power", in_power},
+        {Spec::hydrogen_rate, "hydrogen_rate", in_hydrogen_rate},
+        {Spec::voltage, "voltage", in_voltage},
+    };
+    return all;
+}
+
+const SpecInfo& spec_info(Spec spec) { return specs()[static_cast<std::size_t>(spec)]; }
+
+const SpecInfo* find_spec(std::string_view name) {
+    for (const auto& s : specs())
+        if (name == s.name) return &s;
+    return nullptr;
+}
+
+const char* spec_name(Spec spec) { return spec_info(spec).name; }
+
+std::string spec_names() {
+    std::string out;
+    for (const auto& s : specs()) out += (out.empty() ? "" : ", ") + std::string(s.name);
+    return out;
+}
 
 }  // namespace ely

@@ -4,9 +4,11 @@
 
 #include "cells/cell.hpp"
 #include "cells/custom.hpp"
+#include "cells/registry.hpp"
 
 namespace {
-void evaluate(benchmark::State& state, ely::Technology technology, double t, double j_lo, double j_hi, double p) {
+void evaluate(benchmark::State& state, const char* name, double t, double j_lo, double j_hi, double p) {
+    const auto& technology = ely::technology(name);
     const auto cell = ely::make_cell(technology, ely::ParameterValues(ely::cell_parameters(technology)));
     double j = j_lo;
     for (auto _ : state) {
@@ -16,10 +18,10 @@ void evaluate(benchmark::State& state, ely::Technology technology, double t, dou
 }
 }  // namespace
 
-BENCHMARK_CAPTURE(evaluate, pem, ely::Technology::pem, 353.15, 2000.0, 30000.0, 3e5);
-BENCHMARK_CAPTURE(evaluate, alkaline, ely::Technology::alkaline, 353.15, 1000.0, 8000.0, 3e5);
-BENCHMARK_CAPTURE(evaluate, solid_oxide, ely::Technology::solid_oxide, 1073.15, 1000.0, 15000.0, 1.2e5);
-BENCHMARK_CAPTURE(evaluate, brine, ely::Technology::brine, 358.15, 1000.0, 6000.0, 1.2e5);
+BENCHMARK_CAPTURE(evaluate, pem, "pem", 353.15, 2000.0, 30000.0, 3e5);
+BENCHMARK_CAPTURE(evaluate, alkaline, "alkaline", 353.15, 1000.0, 8000.0, 3e5);
+BENCHMARK_CAPTURE(evaluate, solid_oxide, "solid_oxide", 1073.15, 1000.0, 15000.0, 1.2e5);
+BENCHMARK_CAPTURE(evaluate, brine, "brine", 358.15, 1000.0, 6000.0, 1.2e5);
 
 static void evaluate_custom_zinc(benchmark::State& state) {
     // Two competing cathode reactions (zinc deposition, hydrogen evolution): CRC potentials,

@@ -5,12 +5,14 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <cstddef>
 #include <cstring>
 #include <limits>
 #include <string>
 #include <thread>
 #include <vector>
 
+#include "cells/registry.hpp"
 #include "config/config.hpp"
 #include "unit/block.hpp"
 
@@ -150,7 +152,10 @@ TEST(BlockApi, LifeCycleAndBadInputsKeepTheLastValidState) {
     EXPECT_EQ(ely_block_solve(h.b), ELY_ERR_INFEASIBLE);
     EXPECT_THAT(ely_last_error(), HasSubstr("maximum current density"));
     EXPECT_EQ(h.get("cell.voltage"), v0);
-    EXPECT_EQ(ely_block_set(h.b, h.idx("in.power"), 1e5), ELY_ERR_WRONG_STATE);  // back on current_density
+    const char* spec = nullptr;
+    ASSERT_EQ(ely_block_get_spec(h.b, &spec), ELY_OK);
+    EXPECT_STREQ(spec, "current_density");  // back on current_density
+    EXPECT_EQ(ely_block_set(h.b, h.idx("in.power"), 1e5), ELY_OK);  // stored; the spec does not read it
     ASSERT_GE(ely_block_solve(h.b), 0);
     EXPECT_EQ(h.get("cell.voltage"), v0);
 }
@@ -311,4 +316,206 @@ TEST(BlockApi, TwoThreadsOnTwoHandlesMatchSerial) {
     tb.join();
     EXPECT_EQ(a, serial);
     EXPECT_EQ(b, serial);
+}
+
+// --- The variable metadata: every field, every variable, every technology ----------------------
+
+namespace {
+std::string source(const char* relative) { return std::string(ELY_SOURCE_DIR) + "/" + relative; }
+}  // namespace
+
+TEST(BlockApi, VariableInfoEveryFieldOfEveryVariableOfEveryTechnology) {
+    for (const auto& tech : ely::technologies()) {
+        SCOPED_TRACE(tech.name);
+        const std::string path = source(tech.example);
+        ely_block* b = nullptr;
+        ASSERT_EQ(ely_block_create_from_file(path.c_str(), &b), ELY_OK) << ely_last_error();
+        const ely::Block direct(ely::load_config_file(path));
+        int32_t n = 0;
+        ASSERT_EQ(ely_block_variable_count(b, &n), ELY_OK);
+        ASSERT_EQ(n, direct.variable_count());
+        int32_t shown = 0, tunable = 0;
+        for (int32_t i = 0; i < n; ++i) {
+            ely_variable_info info;
+            std::memset(&info, 0xA5, sizeof info);
+            info.struct_size = sizeof info;
+            ASSERT_EQ(ely_block_variable_info(b, i, &info), ELY_OK) << ely_last_error();
+            const ely::VariableInfo& v = direct.variable(i);
+            SCOPED_TRACE(v.name);
+            EXPECT_EQ(info.struct_size, sizeof info);  // not written by the library
+            // Name, unit, description: the C++ table's strings.
+            EXPECT_STREQ(info.name, v.name);
+            EXPECT_STREQ(info.unit, v.unit);
+            EXPECT_STREQ(info.description, v.description);
+            EXPECT_GT(std::strlen(info.unit), 0u);
+            EXPECT_GT(std::strlen(info.description), 0u);
+            // Causality and variability: consistent pairs.
+            EXPECT_EQ(info.causality, static_cast<int32_t>(v.causality));
+            EXPECT_EQ(info.variability, static_cast<int32_t>(v.variability));
+            switch (info.causality) {
+                case ELY_CAUSALITY_INPUT: EXPECT_EQ(info.variability, ELY_VARIABILITY_CONTINUOUS); break;
+                case ELY_CAUSALITY_OUTPUT:
+                    EXPECT_TRUE(info.variability == ELY_VARIABILITY_CONTINUOUS || info.variability == ELY_VARIABILITY_DISCRETE);
+                    break;
+                case ELY_CAUSALITY_PARAMETER:
+                    EXPECT_TRUE(info.variability == ELY_VARIABILITY_FIXED || info.variability == ELY_VARIABILITY_TUNABLE);
+                    tunable += info.variability == ELY_VARIABILITY_TUNABLE;
+                    break;
+                default: ADD_FAILURE() << "causality " << info.causality;
+            }
+            // Limits, start, nominal.
+            EXPECT_EQ(info.flags, v.min_exclusive ? ELY_VARIABLE_MIN_EXCLUSIVE : 0u);
+            EXPECT_EQ(info.min, v.min);
+            EXPECT_EQ(info.max, v.max);
+            EXPECT_LE(info.min, info.max);
+            EXPECT_FALSE(std::isnan(info.min) || std::isnan(info.max));
+            if (info.causality == ELY_CAUSALITY_OUTPUT) {
+                EXPECT_TRUE(std::isnan(info.start));
+            } else if (!std::isnan(info.start)) {  // NaN only for a drive input never given
+                EXPECT_GE(info.start, info.min);
+                EXPECT_LE(info.start, info.max);
+            } else {
+                EXPECT_EQ(info.causality, ELY_CAUSALITY_INPUT);
+            }
+            EXPECT_EQ(std::isnan(info.start), std::isnan(direct.start(i)));
+            EXPECT_TRUE(std::isfinite(info.nominal) && info.nominal > 0) << info.nominal;
+            // Display: label, unit and a conversion that maps SI to it.
+            EXPECT_STREQ(info.label, v.label);
+            EXPECT_GT(std::strlen(info.label), 0u);
+            EXPECT_STREQ(info.display_unit, v.display_symbol());
+            EXPECT_TRUE(std::isfinite(info.display_scale) && info.display_scale != 0);
+            EXPECT_TRUE(std::isfinite(info.display_offset));
+            if (std::strcmp(info.display_unit, info.unit) == 0) {
+                EXPECT_EQ(info.display_scale, 1.0);
+                EXPECT_EQ(info.display_offset, 0.0);
+            }
+            // Summary place and config key.
+            ASSERT_NE(info.summary_group, nullptr);
+            EXPECT_GE(info.summary_rank, 0);
+            EXPECT_EQ(info.summary_rank > 0, std::strlen(info.summary_group) > 0);
+            EXPECT_EQ(info.summary_rank, direct.summary_rank(i));
+            shown += info.summary_rank > 0;
+            ASSERT_NE(info.config_key, nullptr);
+            if (info.causality == ELY_CAUSALITY_OUTPUT) EXPECT_STREQ(info.config_key, "");
+            else EXPECT_EQ(std::string(info.config_key).rfind("$.", 0), 0u) << info.config_key;
+        }
+        EXPECT_GT(shown, 20);
+        EXPECT_GT(tunable, 10);
+        ely_block_destroy(b);
+    }
+}
+
+TEST(BlockApi, VariableInfoOfTheFirstVersionStillWorks) {
+    // A caller built against the first header: its struct ends after description, and the
+    // library must write nothing beyond it.
+    struct VariableInfoV1 {
+        uint32_t struct_size;
+        int32_t causality;
+        const char* name;
+        const char* unit;
+        const char* description;
+    };
+    struct {
+        VariableInfoV1 info;
+        unsigned char after[96];
+    } guarded;
+    std::memset(&guarded, 0x5A, sizeof guarded);
+    guarded.info.struct_size = sizeof(VariableInfoV1);
+    Handle h;
+    const int32_t i = h.idx("in.temperature");
+    ASSERT_EQ(ely_block_variable_info(h.b, i, reinterpret_cast<ely_variable_info*>(&guarded.info)), ELY_OK)
+        << ely_last_error();
+    EXPECT_STREQ(guarded.info.name, "in.temperature");
+    EXPECT_STREQ(guarded.info.unit, "K");
+    EXPECT_EQ(guarded.info.causality, ELY_CAUSALITY_INPUT);
+    for (unsigned char byte : guarded.after) ASSERT_EQ(byte, 0x5A) << "written past the first version's struct";
+    // A struct_size between the versions is the first version too.
+    guarded.info.struct_size = sizeof(VariableInfoV1) + 8;
+    EXPECT_EQ(ely_block_variable_info(h.b, i, reinterpret_cast<ely_variable_info*>(&guarded.info)), ELY_OK);
+    for (unsigned char byte : guarded.after) ASSERT_EQ(byte, 0x5A);
+}
+
+TEST(BlockApi, ConstantsOfTheTableArePinned) {
+    // Macros are invisible to the ABI check: their values are part of the interface.
+    EXPECT_EQ(ELY_CAUSALITY_INPUT, 0);
+    EXPECT_EQ(ELY_CAUSALITY_OUTPUT, 1);
+    EXPECT_EQ(ELY_CAUSALITY_PARAMETER, 2);
+    EXPECT_EQ(ELY_VARIABILITY_FIXED, 0);
+    EXPECT_EQ(ELY_VARIABILITY_TUNABLE, 1);
+    EXPECT_EQ(ELY_VARIABILITY_CONTINUOUS, 2);
+    EXPECT_EQ(ELY_VARIABILITY_DISCRETE, 3);
+    EXPECT_EQ(ELY_VARIABLE_MIN_EXCLUSIVE, 1);
+    // The second version of the struct: its members after description, in this order.
+    EXPECT_LT(offsetof(ely_variable_info, description), offsetof(ely_variable_info, variability));
+    EXPECT_LT(offsetof(ely_variable_info, config_key), offsetof(ely_variable_info, summary_rank));
+}
+
+// --- Specs and tunable parameters through the C interface ------------------------------------
+
+TEST(BlockApi, EverySpecModeSolvesAndGetSpecNamesIt) {
+    Handle h;
+    ASSERT_GE(ely_block_solve(h.b), 0);
+    struct Mode {
+        const char* spec;
+        const char* input;
+        const char* held;
+    };
+    const Mode modes[] = {{"current_density", "in.current_density", "cell.current_density"},
+                          {"current", "in.current", "stack.current"},
+                          {"power", "in.power", "stack.power"},
+                          {"hydrogen_rate", "in.hydrogen_rate", "product.hydrogen"},
+                          {"voltage", "in.voltage", "cell.voltage"}};
+    double reference[5];
+    for (int m = 0; m < 5; ++m) reference[m] = h.get(modes[m].held);
+    const double j0 = h.get("cell.current_density");
+    for (int m = 0; m < 5; ++m) {
+        SCOPED_TRACE(modes[m].spec);
+        ASSERT_EQ(ely_block_set_spec(h.b, modes[m].spec), ELY_OK);
+        const char* spec = nullptr;
+        ASSERT_EQ(ely_block_get_spec(h.b, &spec), ELY_OK);
+        EXPECT_STREQ(spec, modes[m].spec);
+        ASSERT_EQ(ely_block_set(h.b, h.idx(modes[m].input), reference[m]), ELY_OK);
+        ASSERT_GE(ely_block_solve(h.b), 0) << ely_last_error();
+        EXPECT_NEAR(h.get(modes[m].held), reference[m], 1e-9 * std::fabs(reference[m]));
+        EXPECT_NEAR(h.get("cell.current_density"), j0, 1e-6 * j0);
+    }
+    const char* spec = nullptr;
+    EXPECT_EQ(ely_block_get_spec(nullptr, &spec), ELY_ERR_INVALID_ARGUMENT);
+    EXPECT_EQ(ely_block_get_spec(h.b, nullptr), ELY_ERR_INVALID_ARGUMENT);
+}
+
+TEST(BlockApi, ADriveInputNeverGivenIsAnErrorNamingIt) {
+    Handle h;  // current_density spec, no power given
+    ASSERT_EQ(ely_block_set_spec(h.b, "power"), ELY_OK);
+    EXPECT_EQ(ely_block_solve(h.b), ELY_ERR_INVALID_ARGUMENT);
+    EXPECT_THAT(ely_last_error(), HasSubstr("in.power"));
+    EXPECT_THAT(ely_last_error(), HasSubstr("$.operating.power"));
+    ely_block* b = nullptr;
+    EXPECT_EQ(ely_block_create(R"({"technology":"pem","stack":{"cells":10,"active_area":0.1},"operating":{"spec":"power"}})", &b),
+              ELY_ERR_CONFIG);
+    EXPECT_THAT(ely_last_error(), HasSubstr("operating.power is not given"));
+}
+
+TEST(BlockApi, TunableParametersAreSettableAndStructuralOnesAreNot) {
+    Handle h;
+    ASSERT_GE(ely_block_solve(h.b), 0);
+    const double v0 = h.get("cell.voltage");
+    const int32_t contact = h.idx("param.cell.contact_resistance");
+    ASSERT_EQ(ely_block_set(h.b, contact, 5e-5), ELY_OK) << ely_last_error();
+    ASSERT_GE(ely_block_solve(h.b), 0);
+    EXPECT_GT(h.get("cell.voltage"), v0);
+    EXPECT_EQ(ely_block_set(h.b, contact, -1.0), ELY_ERR_INVALID_ARGUMENT);  // below its limit
+    EXPECT_THAT(ely_last_error(), HasSubstr("param.cell.contact_resistance"));
+    EXPECT_EQ(ely_block_set(h.b, h.idx("param.cells"), 10), ELY_ERR_INVALID_ARGUMENT);
+    EXPECT_THAT(ely_last_error(), HasSubstr("structural"));
+    EXPECT_THAT(ely_last_error(), HasSubstr("$.stack.cells"));
+    EXPECT_EQ(h.get("param.cells"), 100.0);
+    // A clone keeps the value it had when it was made.
+    ely_block* c = nullptr;
+    ASSERT_EQ(ely_block_clone(h.b, &c), ELY_OK);
+    ASSERT_EQ(ely_block_set(h.b, contact, 5e-6), ELY_OK);
+    double in_clone = 0;
+    ASSERT_EQ(ely_block_get(c, contact, &in_clone), ELY_OK);
+    EXPECT_EQ(in_clone, 5e-5);
+    ely_block_destroy(c);
 }

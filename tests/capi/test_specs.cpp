@@ -76,7 +76,7 @@ TEST(SpecModes, EverySpecFindsTheCurrentDensityPointAgain) {
 TEST(SpecModes, CurrentSpecMeetsTheStackCurrentOfTwoStacks) {
     // Two stacks in parallel on one bus: in.current is their total (DEVELOPERS.md), so the
     // current density is I / (2 A).
-    Block b(R"({"technology":"pem","stack":{"cells":50,"active_area":0.2,"stacks":2},"operating":{"spec":"current"}})");
+    Block b(R"({"technology":"pem","stack":{"cells":50,"active_area":0.2,"stacks":2},"operating":{"spec":"current","current":"2 kA"}})");
     b.set("in.current", 4000.0);
     ASSERT_GE(ely_block_solve(b.get()), 0) << ely_last_error();
     EXPECT_NEAR(b.value("cell.current_density"), 4000.0 / (2 * 0.2), 1e-9 * 10000.0);

@@ -7,12 +7,36 @@
 
 #include <initializer_list>
 #include <memory>
+#include <ostream>
+#include <string>
 #include <utility>
+#include <vector>
 
-#include "cells/cell.hpp"
 #include "base/error.hpp"
+#include "cells/cell.hpp"
+#include "cells/registry.hpp"
+
+namespace ely {
+/// Parameterised tests over the registry print a technology by its name, never as a pointer.
+inline void PrintTo(const TechnologyInfo* t, std::ostream* os) { *os << t->name; }
+}  // namespace ely
 
 namespace ely::test {
+
+/// Every technology of the registry, as test parameters.
+inline std::vector<const TechnologyInfo*> all_technologies() {
+    std::vector<const TechnologyInfo*> out;
+    for (const auto& t : technologies()) out.push_back(&t);
+    return out;
+}
+
+/// Test names of parameterised tests over the registry: the technology's name.
+inline std::string technology_name(const ::testing::TestParamInfo<const TechnologyInfo*>& info) {
+    return info.param->name;
+}
+
+/// The path of a file of the source tree (examples, docs).
+inline std::string source_path(const std::string& relative) { return std::string(ELY_SOURCE_DIR) + "/" + relative; }
 
 /// |a/b − 1|
 inline double rel(double a, double b) { return std::fabs(a / b - 1.0); }
@@ -29,12 +53,14 @@ void expect_error(F&& f, ErrorKind kind, const char* fragment) {
     }
 }
 
-/// A cell of `technology` with its default parameters, the given ones changed.
-inline std::unique_ptr<Cell> cell_with(Technology technology,
+/// A cell of the technology named `technology` (registry) with its default parameters, the
+/// given ones changed.
+inline std::unique_ptr<Cell> cell_with(const char* technology,
                                        std::initializer_list<std::pair<const char*, double>> settings = {}) {
-    ParameterValues values(cell_parameters(technology));
+    const TechnologyInfo& t = ely::technology(technology);
+    ParameterValues values(cell_parameters(t));
     for (const auto& [key, value] : settings) values.set(key, value);
-    return make_cell(technology, values);
+    return make_cell(t, values);
 }
 
 /// Property test of a liquid-electrolyte cell: at each pressure pair and temperature the

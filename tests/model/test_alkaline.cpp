@@ -7,7 +7,6 @@
 #include <string>
 
 #include "cells/cell.hpp"
-#include "cells/technologies.hpp"
 #include "electrochem/conduction.hpp"
 #include "electrochem/electrolyte.hpp"
 #include "electrochem/crossover.hpp"
@@ -24,7 +23,7 @@ using ::testing::HasSubstr;
 namespace {
 
 std::unique_ptr<Cell> alkaline(std::initializer_list<std::pair<const char*, double>> set = {}) {
-    return ely::test::cell_with(Technology::alkaline, set);
+    return ely::test::cell_with("alkaline", set);
 }
 
 constexpr double kAtm = 101325.0;

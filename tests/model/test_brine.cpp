@@ -11,7 +11,6 @@
 #include <utility>
 
 #include "cells/brine/brine.hpp"
-#include "cells/technologies.hpp"
 #include "electrochem/electrolyte.hpp"
 #include "thermo/constants.hpp"
 #include "base/error.hpp"
@@ -27,7 +26,7 @@ using ::testing::HasSubstr;
 
 namespace {
 std::unique_ptr<Cell> brine_cell(std::initializer_list<std::pair<const char*, double>> settings = {}) {
-    return ely::test::cell_with(Technology::brine, settings);
+    return ely::test::cell_with("brine", settings);
 }
 
 OperatingPoint point(double j, double t = 363.15, double p = 1.2e5) { return {j, t, p, p}; }

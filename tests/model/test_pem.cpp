@@ -7,7 +7,6 @@
 #include <string>
 
 #include "cells/cell.hpp"
-#include "cells/technologies.hpp"
 #include "electrochem/conduction.hpp"
 #include "electrochem/kinetics.hpp"
 #include "thermo/constants.hpp"
@@ -23,7 +22,7 @@ using ::testing::HasSubstr;
 namespace {
 
 std::unique_ptr<Cell> pem(std::initializer_list<std::pair<const char*, double>> set = {}) {
-    return ely::test::cell_with(Technology::pem, set);
+    return ely::test::cell_with("pem", set);
 }
 
 constexpr double kAtm = 101325.0;

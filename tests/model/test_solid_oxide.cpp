@@ -7,7 +7,6 @@
 #include <string>
 
 #include "cells/cell.hpp"
-#include "cells/technologies.hpp"
 #include "thermo/constants.hpp"
 #include "base/error.hpp"
 #include "thermo/reaction.hpp"
@@ -21,7 +20,7 @@ using ::testing::HasSubstr;
 namespace {
 
 std::unique_ptr<Cell> soec(std::initializer_list<std::pair<const char*, double>> set = {}) {
-    return ely::test::cell_with(Technology::solid_oxide, set);
+    return ely::test::cell_with("solid_oxide", set);
 }
 
 constexpr double kAtm = 101325.0;

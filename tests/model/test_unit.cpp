@@ -1,34 +1,78 @@
-// The block (lib/unit): balances over random operating points for every technology, spec
-// solves, alarms, rollback. Balances are identities: they must close to round-off.
+// The block (lib/unit): balances over random operating points and every spec mode for every
+// technology of the registry, the energy balance by an independent route and by a hand
+// calculation, tunable parameters, degradation, every alarm, rollback, the report.
+// Balances are identities: they must close to round-off.
 #include <gmock/gmock.h>
 #include <gtest/gtest.h>
 
+#include <boost/json.hpp>
+#include <algorithm>
 #include <cmath>
+#include <fstream>
 #include <random>
+#include <sstream>
 #include <string>
 
-#include "config/config.hpp"
-#include "thermo/constants.hpp"
 #include "base/error.hpp"
+#include "config/config.hpp"
+#include "config/units.hpp"
+#include "support.hpp"
+#include "thermo/constants.hpp"
+#include "thermo/if97.hpp"
+#include "thermo/reaction.hpp"
 #include "thermo/species.hpp"
 #include "thermo/water.hpp"
 #include "unit/block.hpp"
 
 using namespace ely;
 using ::testing::HasSubstr;
+using ely::test::source_path;
 
 namespace {
 
-std::string minimal(const char* technology, const std::string& extra = "") {
-    return std::string(R"({"technology":")") + technology +
-           R"(","stack":{"cells":20,"active_area":0.05,"stacks":3},"operating":{"spec":"current_density"})" + extra + "}";
+namespace json = boost::json;
+
+// The test stack: 20 cells of 0.05 m² in each of 3 stacks.
+constexpr double kAreaTotal = 20 * 3 * 0.05;  // m²
+
+std::string read_file(const std::string& path) {
+    std::ifstream in(path);
+    std::stringstream ss;
+    ss << in.rdbuf();
+    return ss.str();
+}
+
+/// Merges the members of `extra` into `target`: objects member by member, other values replaced.
+void merge(json::object& target, const json::object& extra) {
+    for (const auto& kv : extra) {
+        json::value& slot = target[kv.key()];
+        if (slot.is_object() && kv.value().is_object()) merge(slot.as_object(), kv.value().as_object());
+        else slot = kv.value();
+    }
+}
+
+/// A plant description for the tests: the technology's minimal example (its registry entry)
+/// with the test stack, and each of `extras` (JSON objects) merged in.
+std::string plant(const TechnologyInfo& t, std::initializer_list<std::string> extras = {}) {
+    json::object root = json::parse(read_file(source_path(t.example))).as_object();
+    root["stack"] = json::object{{"cells", 20}, {"active_area", 0.05}, {"stacks", 3}};
+    for (const auto& extra : extras) merge(root, json::parse(extra).as_object());
+    return json::serialize(root);
+}
+std::string plant(const char* technology, const std::string& extra = "{}") {
+    return plant(ely::technology(technology), {extra});
 }
 
 struct Probe {
     Block block;
     explicit Probe(const std::string& json) : block(parse_config(json)) {}
-    int32_t idx(const char* name) const { return block.find(name); }
+    bool has(const char* name) const {
+        for (int32_t i = 0; i < block.variable_count(); ++i)
+            if (std::string(block.variable(i).name) == name) return true;
+        return false;
+    }
     double get(const char* name) const { return block.get(block.find(name)); }
+    double get_or_zero(const std::string& name) const { return has(name.c_str()) ? get(name.c_str()) : 0.0; }
     void set(const char* name, double v) { block.set(block.find(name), v); }
 };
 
@@ -37,10 +81,7 @@ struct StreamMoles {
     double total, h2, o2, cl2, h2o;
 };
 StreamMoles stream(const Probe& p, const std::string& side) {
-    const auto g = [&](const std::string& q) {
-        const std::string name = "stream." + side + "." + q;
-        try { return p.get(name.c_str()); } catch (const Error&) { return 0.0; }  // x_cl2 exists for brine only
-    };
+    const auto g = [&](const std::string& q) { return p.get_or_zero("stream." + side + "." + q); };
     StreamMoles s{};
     s.h2 = g("x_h2");
     s.o2 = g("x_o2");
@@ -55,36 +96,95 @@ StreamMoles stream(const Probe& p, const std::string& side) {
 
 double rel_err(double a, double b, double scale) { return std::fabs(a - b) / scale; }
 
+/// Whether the solved cell is fed steam (the water leaves with its gases as steam it brought)
+/// rather than liquid water that evaporates into the gases.
+bool steam_fed(const Probe& p) {
+    return !p.block.cell()
+                .evaluate({p.get("cell.current_density"), p.get("in.temperature"), p.get("in.pressure_anode"),
+                           p.get("in.pressure_cathode")})
+                .gases_saturated;
+}
+
+// Liquid water and saturated vapour from IAPWS-IF97 directly (its own reference state), J/mol.
+double if97_liquid(double t, double p) {
+    return molar_mass::H2O * if97::region1(t, std::max(p, if97::saturation_pressure(t))).h;
+}
+/// Heat to evaporate saturated liquid at T into the ideal-gas state (the vapour in the wet
+/// gases is an ideal-gas mixture, PHYSICS.md "Balances"): IF97 region 2's ideal-gas part less
+/// region 1 on the saturation line.
+double if97_latent_heat(double t) {
+    const double p_sat = if97::saturation_pressure(t);
+    return molar_mass::H2O * (if97::region2_ideal_gas(t, p_sat).h - if97::region1(t, p_sat).h);
+}
+
+/// The heat duty by Hess's law, independent of the block's species-by-species balance: the
+/// electrical power less the reaction enthalpies (from the cell's thermoneutral voltage,
+/// ΔH = zF·E_tn, reaction at T with liquid water at p° — or steam for a steam cell), the latent
+/// heat of the vapour leaving with the gases and the sensible heat of the liquid feed (both
+/// from IAPWS-IF97), less the heat lost.
+double duty_by_hess_law(const Probe& p, const TechnologyInfo& tech, double t, double t_feed, double p_feed) {
+    const auto c = stream(p, "cathode"), a = stream(p, "anode");
+    const double power = p.get("stack.power"), e_tn = p.get("cell.thermoneutral_voltage");
+    const double water_in = p.get("feed.water") / molar_mass::H2O;
+    if (steam_fed(p))
+        return power - (c.h2 + a.h2) * 2 * kFaraday * e_tn - p.get("heat.loss");  // steam fed at T: only the reaction
+    double reactions, water_reacted;
+    if (tech.has(kBrineProducts)) {
+        // 2 NaCl + 2 H2O → Cl2 + H2 + 2 NaOH (extent = Cl2, ΔH = 2F·E_tn) and the back-migrated
+        // hydroxide's net water splitting 2 H2O → 2 H2 + O2 (extent = O2, ΔH = 2·2F·E_tn,HHV).
+        reactions = a.cl2 * 2 * kFaraday * e_tn + a.o2 * 2 * 2 * kFaraday * thermoneutral_voltage_hhv(t);
+        water_reacted = 2 * a.cl2 + 2 * a.o2;
+    } else {
+        water_reacted = c.h2 + a.h2;  // H2O → H2 + ½ O2, every H2 leaving either side
+        reactions = water_reacted * 2 * kFaraday * e_tn;
+    }
+    const double vapour = c.h2o + a.h2o;
+    const double h_feed = if97_liquid(t_feed, p_feed), h_liquid_t = if97_liquid(t, p_feed);
+    const double p_standard = std::max(1e5, if97::saturation_pressure(t));
+    const double sensible = water_reacted * (if97_liquid(t, p_standard) - h_feed) +
+                            vapour * (if97_latent_heat(t) + if97_liquid(t, 0) - h_feed) +
+                            (water_in - water_reacted - vapour) * (h_liquid_t - h_feed);  // liquid leaving at T
+    return power - reactions - sensible - p.get("heat.loss");
+}
+
 }  // namespace
 
-// (technology, extra top-level JSON): the defaults, and the options that move gas between
+// --- Balances over random operating points ----------------------------------------------------
+
+// (technology, extra JSON): every technology's defaults, and the options that move gas between
 // the streams (Faraday-efficiency models, shunt currents, recombination, drag not returned).
-using BalanceCase = std::pair<const char*, const char*>;
+struct BalanceCase {
+    const char* technology;
+    const char* extra;
+    const char* label;
+};
+void PrintTo(const BalanceCase& c, std::ostream* os) { *os << c.technology << " " << c.label; }
+
 class UnitBalances : public ::testing::TestWithParam<BalanceCase> {};
 
 TEST_P(UnitBalances, ElementAndEnergyBalancesCloseOverRandomPoints) {
-    const std::string tech = GetParam().first;
-    Probe p(minimal(tech.c_str(), std::string(R"(,"plant":{"thermal":{"heat_loss_coefficient":5}})") + GetParam().second));
-    const auto& env = p.block.design().cell->envelope();
-    const double drag_coefficient = tech == "pem" ? 2.5 : 0.0;  // PEM default electro-osmotic drag
+    const TechnologyInfo& tech = technology(GetParam().technology);
+    const bool brine = tech.has(kBrineProducts);
+    Probe p(plant(tech, {R"({"plant":{"thermal":{"heat_loss_coefficient":5}}})", *GetParam().extra ? GetParam().extra : "{}"}));
+    const auto& env = p.block.cell().envelope();
     std::mt19937_64 rng(20261201);
     std::uniform_real_distribution<double> u(0.0, 1.0);
     const double p_lo = std::max(env.pressure_min, 1.1e5), p_hi = std::min(env.pressure_max, 30e5);
-    int solved = 0;
+    double worst_hess = 0;
     for (int k = 0; k < 1000; ++k) {
         const double t = env.temperature_fit_min + u(rng) * (env.temperature_fit_max - env.temperature_fit_min);
         const double pc = p_lo + u(rng) * (p_hi - p_lo);
         const double pa = p_lo + u(rng) * (std::min(p_hi, pc) - p_lo);
-        const double t_feed = 288.15 + u(rng) * (t - 288.15);
+        // Brine: feed at stack temperature, so that the salt needs no sensible heat in the Hess route.
+        const double t_feed = brine ? t : 288.15 + u(rng) * (t - 288.15);
         p.set("in.temperature", t);
         p.set("in.pressure_cathode", pc);
         p.set("in.pressure_anode", pa);
         p.set("in.feed_temperature", t_feed);
         p.set("in.hours_operated", u(rng) * 20000);
-        const double j_max = p.block.design().cell->current_density_limit({env.current_density_max, t, pa, pc});
+        const double j_max = p.block.cell().current_density_limit({env.current_density_max, t, pa, pc});
         p.set("in.current_density", (0.05 + 0.9 * u(rng)) * std::min(j_max, p.get("param.current_density_max")));
         p.block.solve();
-        ++solved;
 
         // Voltage breakdown sums exactly.
         const double parts = p.get("cell.reversible_voltage") + p.get("cell.activation_anode") +
@@ -94,50 +194,49 @@ TEST_P(UnitBalances, ElementAndEnergyBalancesCloseOverRandomPoints) {
         // Element balances: feed (water, salt) = cathode stream + anode stream + liquids out.
         const auto c = stream(p, "cathode"), a = stream(p, "anode");
         const double water_in = p.get("feed.water") / molar_mass::H2O;
-        const double salt_in = tech == "brine" ? p.get("feed.salt") / molar_mass::NaCl : 0.0;
-        const double naoh = tech == "brine" ? p.get("product.caustic") / molar_mass::NaOH : 0.0;
-        double liquid_out =  // liquid water leaving: caustic solution water, drained drag water
-            tech == "brine" ? (p.get("product.caustic_solution") - p.get("product.caustic")) / molar_mass::H2O : 0.0;
-        if (!p.block.design().drag_water_returned)  // PEM drag water leaves as liquid: n_d·j/F per m²
-            liquid_out += drag_coefficient * p.get("cell.current_density") / kFaraday * (20 * 3 * 0.05);
+        const double salt_in = p.get_or_zero("feed.salt") / molar_mass::NaCl;
+        const double naoh = p.get_or_zero("product.caustic") / molar_mass::NaOH;
+        double liquid_out = (p.get_or_zero("product.caustic_solution") - p.get_or_zero("product.caustic")) / molar_mass::H2O;
+        if (!p.block.design().drag_water_returned)  // drag water leaves as liquid: n_d·j/F per m²
+            liquid_out += p.get("param.cell.electroosmotic_drag") * p.get("cell.current_density") / kFaraday * kAreaTotal;
         const double h_in = 2 * water_in, o_in = water_in;
         const double h_out = 2 * (c.h2 + a.h2 + c.h2o + a.h2o + liquid_out) + naoh;
         const double o_out = 2 * (c.o2 + a.o2) + c.h2o + a.h2o + liquid_out + naoh;
-        const double scale = h_in;
-        ASSERT_LT(rel_err(h_in, h_out, scale), 1e-12) << tech << " H, point " << k;
-        ASSERT_LT(rel_err(o_in, o_out, scale), 1e-12) << tech << " O, point " << k;
-        if (tech == "brine") {
+        ASSERT_LT(rel_err(h_in, h_out, h_in), 1e-12) << tech.name << " H, point " << k;
+        ASSERT_LT(rel_err(o_in, o_out, h_in), 1e-12) << tech.name << " O, point " << k;
+        if (brine) {
             ASSERT_LT(rel_err(salt_in, naoh, salt_in), 1e-12) << "Na";
             ASSERT_LT(rel_err(salt_in, 2 * a.cl2, salt_in), 1e-12) << "Cl";
             // Brine loop: salt fed with the resaturated brine less salt leaving with the depleted
             // brine is the salt consumed.
-            const double fed = p.get("stream.brine_feed.mass_flow") * 0.26;  // default feed strength
+            const double fed = p.get("stream.brine_feed.mass_flow") * p.get("param.cell.brine_feed_nacl_mass_fraction");
             const double left = p.get("stream.depleted_brine.mass_flow") * p.get("stream.depleted_brine.nacl_mass_fraction");
             ASSERT_LT(rel_err(fed - left, p.get("feed.salt"), p.get("feed.salt")), 1e-12) << "brine loop";
-            ASSERT_LT(p.get("stream.depleted_brine.nacl_mass_fraction"), 0.26);
         }
 
-        // Energy: P_DC + H_feed = H_products + Q_duty + Q_loss, recomputed from the outputs
-        // with the thermodynamic functions directly.
-        double feed_h;
-        if (tech == "solid_oxide") feed_h = water_in * ideal_gas(Species::water_vapour, t).enthalpy;
-        else feed_h = water_in * liquid_water(t_feed, std::max(pa, pc)).enthalpy;
-        if (tech == "brine") feed_h += salt_in * aqueous_solute(Solute::sodium_chloride, t_feed).enthalpy;
-        double prod_h = (c.h2 + a.h2) * ideal_gas(Species::hydrogen, t).enthalpy +
-                        (c.h2o + a.h2o) * ideal_gas(Species::water_vapour, t).enthalpy;
-        if (c.o2 + a.o2 > 0) prod_h += (c.o2 + a.o2) * ideal_gas(Species::oxygen, t).enthalpy;
-        if (a.cl2 > 0) prod_h += a.cl2 * ideal_gas(Species::chlorine, t).enthalpy;
-        if (liquid_out > 0) prod_h += liquid_out * liquid_water(t, std::max(pc, water_saturation_pressure(t))).enthalpy;
-        if (tech == "brine") prod_h += naoh * aqueous_solute(Solute::sodium_hydroxide, t).enthalpy;
+        // Energy: by Hess's law from the thermoneutral voltage and IF97, not from the species
+        // enthalpies the block sums. The two differ by one known amount: the block anchors the
+        // vapour to CODATA's heat of vaporisation to the ideal gas at 298.15 K, 44.004 kJ/mol
+        // (ΔfH° of H2O g and l), this route takes IF97's, 44.011 kJ/mol (region 2 ideal part less
+        // region 1 at 1 bar): 7.2 J per mol of vapour, below 1e-4 of the power at these loads.
         const double power = p.get("stack.power");
-        const double lhs = power + feed_h, rhs = prod_h + p.get("heat.duty") + p.get("heat.loss");
-        ASSERT_LT(std::fabs(lhs - rhs), 1e-9 * power) << tech << " energy, point " << k;
+        if (tech.has(kHeatFromThermoneutralVoltage)) {
+            // No enthalpy data for the products: the duty has the sign of the voltage above E_tn.
+            ASSERT_EQ(p.get("heat.duty") + p.get("heat.loss") > 0,
+                      p.get("cell.voltage") > p.get("cell.thermoneutral_voltage"));
+        } else if (brine) {
+            // Pending: the brine cell's E_tn counts the heats of mixing of its concentrated
+            // solutions, the block's energy balance does not yet (see UnitSpecs' brine skip).
+        } else {
+            const double hess = duty_by_hess_law(p, tech, t, t_feed, std::max(pa, pc));
+            worst_hess = std::max(worst_hess, std::fabs(hess - p.get("heat.duty")) / power);
+            ASSERT_LT(std::fabs(hess - p.get("heat.duty")), 1e-4 * power) << tech.name << " energy, point " << k;
+        }
 
         // Faraday's law: product hydrogen = j·A_total/(2F)·η_F·M_H2.
-        const double area_total = 20 * 3 * 0.05;
-        const double faraday = p.get("cell.current_density") * area_total / (2 * kFaraday) *
+        const double faraday = p.get("cell.current_density") * kAreaTotal / (2 * kFaraday) *
                                p.get("cell.faraday_efficiency") * molar_mass::H2;
-        ASSERT_LT(rel_err(p.get("product.hydrogen"), faraday, faraday), 1e-9) << tech;
+        ASSERT_LT(rel_err(p.get("product.hydrogen"), faraday, faraday), 1e-9) << tech.name;
         ASSERT_LT(rel_err(p.get("perf.specific_energy"), power / p.get("product.hydrogen"), p.get("perf.specific_energy")),
                   1e-14);
         ASSERT_GT(p.get("cell.faraday_efficiency"), 0.0);
@@ -145,73 +244,124 @@ TEST_P(UnitBalances, ElementAndEnergyBalancesCloseOverRandomPoints) {
         ASSERT_GE(p.get("gas.h2_in_o2"), 0.0);
         ASSERT_LT(p.get("gas.h2_in_o2"), 1.0);
     }
-    EXPECT_EQ(solved, 1000);
+    RecordProperty("worst_hess_relative", std::to_string(worst_hess));
 }
 
+std::vector<BalanceCase> every_technology() {
+    std::vector<BalanceCase> out;
+    for (const auto& t : technologies()) out.push_back({t.name, "", "defaults"});
+    return out;
+}
+
+INSTANTIATE_TEST_SUITE_P(Registry, UnitBalances, ::testing::ValuesIn(every_technology()),
+                         [](const ::testing::TestParamInfo<BalanceCase>& info) { return std::string(info.param.technology); });
+
 INSTANTIATE_TEST_SUITE_P(
-    AllTechnologies, UnitBalances,
-    ::testing::Values(BalanceCase{"pem", ""}, BalanceCase{"alkaline", ""}, BalanceCase{"solid_oxide", ""},
-                      BalanceCase{"brine", ""},
-                      BalanceCase{"pem", R"(,"cell":{"o2_recombination_fraction":0.3})"},
-                      BalanceCase{"alkaline", R"(,"cell":{"faraday_model":1})"},
-                      BalanceCase{"alkaline", R"(,"cell":{"shunt_model":1,"shunt_current_fraction":0.02})"},
-                      BalanceCase{"alkaline", R"(,"cell":{"shunt_model":2})"},
-                      BalanceCase{"brine", R"(,"cell":{"voltage_model":1})"}),
+    Options, UnitBalances,
+    ::testing::Values(
+        BalanceCase{"pem", R"({"cell":{"o2_recombination_fraction":0.3}})", "partial_recombination"},
+        BalanceCase{"pem", R"({"plant":{"drag_water_returned":false}})", "drag_water_drained"},
+        BalanceCase{"alkaline", R"({"cell":{"faraday_model":1}})", "ulleberg_efficiency"},
+        BalanceCase{"alkaline", R"({"cell":{"shunt_model":1,"shunt_current_fraction":0.02}})", "shunt_fraction"},
+        BalanceCase{"alkaline", R"({"cell":{"shunt_model":2}})", "shunt_network"},
+        BalanceCase{"brine", R"({"cell":{"voltage_model":1}})", "linear_voltage_fit"}),
     [](const ::testing::TestParamInfo<BalanceCase>& info) {
-        return std::string(info.param.first) + (*info.param.second ? "_option_" + std::to_string(info.index) : "");
+        return std::string(info.param.technology) + "_" + info.param.label;
     });
 
 TEST(UnitBalances, DragWaterNotReturnedIsMakeUpWater) {
     // PEM: water dragged to the cathode and drained adds n_d·j/F per m² to the make-up water.
-    Probe kept(minimal("pem")), drained(minimal("pem", R"(,"plant":{"drag_water_returned":false})"));
+    Probe kept(plant("pem")), drained(plant("pem", R"({"plant":{"drag_water_returned":false}})"));
     kept.block.solve();
     drained.block.solve();
     const double j = kept.get("cell.current_density");
-    const double extra = 2.5 * j / kFaraday * (20 * 3 * 0.05) * molar_mass::H2O;  // default n_d = 2.5
+    const double extra = 2.5 * j / kFaraday * kAreaTotal * molar_mass::H2O;  // default n_d = 2.5
     EXPECT_NEAR(drained.get("feed.water") - kept.get("feed.water"), extra, 1e-12 * extra);
     EXPECT_LT(drained.get("heat.duty"), kept.get("heat.duty"));  // liquid leaves hot, fed cold
 }
 
-class UnitSpecs : public ::testing::TestWithParam<const char*> {};
+TEST(UnitEnergy, HandCalculationAtTheReferenceState) {
+    // PEM at 298.15 K with feed at 298.15 K and both sides at 1 bar: every species sits at the
+    // reference state, so each enthalpy is its enthalpy of formation (CODATA key values, Cox,
+    // Wagman & Medvedev 1989): H2(g) 0, O2(g) 0, H2O(l) −285.830 kJ/mol, H2O(g) −241.826 kJ/mol.
+    // Then Q = P + n_in·(−285.830) − n_vap·(−241.826) (H2, O2 contribute 0), and with
+    // n_in = n_reacted + n_vap: Q = P − n_reacted·285.830 kJ − n_vap·44.004 kJ.
+    Probe p(plant("pem", R"({"operating":{"temperature":298.15,"pressure_cathode":1e5,"pressure_anode":1e5},
+                             "plant":{"thermal":{"feed_temperature":298.15}}})"));
+    p.set("in.current_density", 1e4);  // 1 A/cm2
+    p.block.solve();
+    const auto c = stream(p, "cathode"), a = stream(p, "anode");
+    const double n_reacted = c.h2 + a.h2;  // mol/s: every H2 leaving came from one H2O
+    const double n_vapour = c.h2o + a.h2o;
+    // The numbers behind it: 1 A/cm2 on 3 m² is 30 kA, 0.1554 mol/s of H2 by Faraday's law (CODATA
+    // F = 96485.33212 C/mol), of which the cathode delivers the Faraday efficiency's share and
+    // the rest crosses to the anode gas; the vapour leaves saturated at 3.17 kPa (IF97) over 1 bar.
+    EXPECT_NEAR(c.h2, 3e4 / (2 * 96485.33212) * p.get("cell.faraday_efficiency"), 1e-9);
+    EXPECT_LE(n_reacted, 3e4 / (2 * 96485.33212));
+    const double expected = p.get("stack.power") - n_reacted * 285830.0 - n_vapour * 44004.0;
+    // The NIST Shomate fits of H2 and O2 give H − H°(298.15 K) = +0.15 and −0.27 J/mol at 298.15 K
+    // (the residual of their coefficients), so the products may differ from zero by 0.3 J/mol.
+    EXPECT_NEAR(p.get("heat.duty"), expected, 0.3 * 1.5 * n_reacted + 1e-9 * p.get("stack.power"));
+}
 
-TEST_P(UnitSpecs, PowerHydrogenAndVoltageSpecsMeetTheirSetpoints) {
-    Probe p(minimal(GetParam()));
+// --- Spec solves ------------------------------------------------------------------------------
+
+class UnitSpecs : public ::testing::TestWithParam<const TechnologyInfo*> {};
+
+TEST_P(UnitSpecs, EverySpecModeMeetsItsSetpoint) {
+    // Each drive input the technology has, at several loads: the solved output equals it. The
+    // output each spec is held to: current density → cell.current_density, current →
+    // stack.current, power → stack.power, hydrogen rate → product.hydrogen, voltage → cell.voltage.
+    Probe p(plant(*GetParam()));
     p.block.solve();
     const double j0 = p.get("cell.current_density");
-    const double power = p.get("stack.power"), h2 = p.get("product.hydrogen"), v = p.get("cell.voltage");
-    for (double f : {0.3, 0.77, 1.0}) {
-        p.block.set_spec(Spec::power);
-        p.set("in.power", f * power);
-        p.block.solve();
-        EXPECT_LT(std::fabs(p.get("stack.power") / (f * power) - 1.0), 1e-9) << f;
-        p.block.set_spec(Spec::hydrogen_rate);
-        p.set("in.hydrogen_rate", f * h2);
-        p.block.solve();
-        EXPECT_LT(std::fabs(p.get("product.hydrogen") / (f * h2) - 1.0), 1e-9) << f;
+    const char* held[] = {"cell.current_density", "stack.current", "stack.power", "product.hydrogen", "cell.voltage"};
+    double reference[5];
+    for (int s = 0; s < 5; ++s) reference[s] = p.get(held[s]);
+    int modes = 0;
+    for (const auto& spec : specs()) {
+        const auto& drive = variable_info(spec.drive);
+        if (!p.has(drive.name)) continue;
+        ++modes;
+        const int s = static_cast<int>(spec.spec);
+        for (double f : spec.spec == Spec::voltage ? std::vector<double>{1.0} : std::vector<double>{0.3, 0.77, 1.0}) {
+            p.block.set_spec(spec.spec);
+            p.set(drive.name, f * reference[s]);
+            p.block.solve();
+            EXPECT_LT(std::fabs(p.get(held[s]) / (f * reference[s]) - 1.0), 1e-9) << spec.name << " at " << f;
+        }
+        EXPECT_NEAR(p.get("cell.current_density"), j0, 1e-6 * j0) << spec.name << ": back at the reference point";
     }
-    p.block.set_spec(Spec::voltage);
-    p.set("in.voltage", v);
-    p.block.solve();
-    EXPECT_NEAR(p.get("cell.current_density"), j0, 1e-6 * j0);
+    EXPECT_EQ(modes, GetParam()->has(kMakesHydrogen) ? 5 : 4);
 }
 
 TEST_P(UnitSpecs, InfeasiblePowerNamesTheLimitAndKeepsTheLastState) {
-    Probe p(minimal(GetParam()));
+    Probe p(plant(*GetParam()));
     p.block.solve();
     const double v_before = p.get("cell.voltage"), t_before = p.get("in.temperature");
     p.block.set_spec(Spec::power);
     p.set("in.power", 1e12);
-    try {
-        p.block.solve();
-        FAIL() << "an infeasible power was accepted";
-    } catch (const Error& e) {
-        EXPECT_EQ(e.kind(), ErrorKind::infeasible);
-        EXPECT_THAT(e.what(), HasSubstr("maximum current density"));
-        EXPECT_THAT(e.what(), HasSubstr("in.power"));
-    }
+    ely::test::expect_error([&] { p.block.solve(); }, ErrorKind::infeasible,
+                            "in.power = 1e+12 W is above what the plant reaches at its maximum current density");
     EXPECT_TRUE(p.block.solved());
+    EXPECT_EQ(p.block.spec(), Spec::current_density);
     EXPECT_EQ(p.get("cell.voltage"), v_before);
     EXPECT_EQ(p.get("in.temperature"), t_before);
+}
+
+TEST_P(UnitSpecs, ADriveInputNeverGivenIsAnErrorNamingKeyAndVariable) {
+    // The config had current_density; switching to a spec whose input was never given nor set
+    // must not solve at 0: the error names the config key and the variable.
+    Probe p(plant(*GetParam()));
+    for (const Spec s : {Spec::power, Spec::current, Spec::voltage}) {
+        const auto& drive = variable_info(spec_info(s).drive);
+        p.block.set_spec(s);
+        ely::test::expect_error([&] { p.block.solve(); }, ErrorKind::invalid_argument, drive.name);
+        p.block.set_spec(s);
+        ely::test::expect_error([&] { p.block.solve(); }, ErrorKind::invalid_argument, drive.config_key);
+        EXPECT_FALSE(p.block.solved());
+        EXPECT_EQ(p.block.spec(), Spec::current_density);  // rolled back
+    }
 }
 
 TEST_P(UnitSpecs, HeatDutyFollowsTheThermoneutralVoltage) {
@@ -220,18 +370,18 @@ TEST_P(UnitSpecs, HeatDutyFollowsTheThermoneutralVoltage) {
     // less the latent heat of the vapour leaving with the gases (PHYSICS.md, "Thermoneutral
     // operation"). Side reactions (crossover, caustic back-migration) make that estimate
     // approximate: it must agree in sign wherever it exceeds 5 % of the power.
-    const std::string tech = GetParam();
+    const TechnologyInfo& tech = *GetParam();
     // The brine cell's E_tn includes the heats of mixing of its concentrated solutions; the block's energy
     // balance does not yet count them in the stream enthalpies (aqueous_salt_relative_enthalpies is there for
     // it): until it does, the two disagree at part load.
-    if (tech == "brine") GTEST_SKIP() << "energy balance without heats of mixing (pending)";
-    Probe p(minimal(tech.c_str()));
+    if (std::string(tech.name) == "brine") GTEST_SKIP() << "energy balance without heats of mixing (pending)";
+    Probe p(plant(tech));
     p.block.solve();
     const double t = p.get("in.temperature");
+    const bool steam = steam_fed(p);
     p.set("in.feed_temperature", t);
     const double j_max = p.get("param.current_density_max");
-    const double latent =
-        tech == "solid_oxide" ? 0.0 : ideal_gas(Species::water_vapour, t).enthalpy - liquid_water_standard(t).enthalpy;
+    const double latent = steam ? 0.0 : if97_latent_heat(t);
     int above = 0, below = 0;
     for (double f = 0.02; f <= 0.95; f += 0.01) {
         p.set("in.current_density", f * j_max);
@@ -239,23 +389,59 @@ TEST_P(UnitSpecs, HeatDutyFollowsTheThermoneutralVoltage) {
         const double power = p.get("stack.power");
         const double h2_moles = p.get("product.hydrogen") / molar_mass::H2;
         double vapour = stream(p, "anode").h2o;
-        if (tech != "solid_oxide") vapour += stream(p, "cathode").h2o;  // SOEC steam is fed as steam
+        if (!steam) vapour += stream(p, "cathode").h2o;  // a steam cell's steam is fed as steam
         const double estimate = power - h2_moles * 2 * kFaraday * p.get("cell.thermoneutral_voltage") - vapour * latent;
         if (estimate > 0.05 * power) { EXPECT_GT(p.get("heat.duty"), 0.0) << f; ++above; }
         if (estimate < -0.05 * power) { EXPECT_LT(p.get("heat.duty"), 0.0) << f; ++below; }
-        if (p.get("cell.voltage") > p.get("cell.thermoneutral_voltage") + 0.05 && vapour == 0.0) {
-            EXPECT_GT(p.get("heat.duty"), 0.0) << "above thermoneutral without vapour";
-        }
     }
     EXPECT_GT(above + below, 10);
 }
 
-INSTANTIATE_TEST_SUITE_P(AllTechnologies, UnitSpecs, ::testing::Values("pem", "alkaline", "solid_oxide", "brine"));
+INSTANTIATE_TEST_SUITE_P(Registry, UnitSpecs, ::testing::ValuesIn(ely::test::all_technologies()),
+                         ely::test::technology_name);
+
+TEST(UnitSpecs, PowerAndCurrentAreTotalsOverAllStacks) {
+    // Two stacks: operating.power in the config and in.power are the same quantity, the DC power
+    // of both stacks together, and so are operating.current and in.current.
+    Probe from_config(plant("pem", R"({"stack":{"cells":20,"active_area":0.05,"stacks":2},
+                                      "operating":{"spec":"power","power":"40 kW"}})"));
+    EXPECT_EQ(from_config.get("in.power"), 40e3);
+    from_config.block.solve();
+    EXPECT_NEAR(from_config.get("stack.power"), 40e3, 1e-9 * 40e3);
+    Probe set_later(plant("pem", R"({"stack":{"cells":20,"active_area":0.05,"stacks":2}})"));
+    set_later.block.set_spec(Spec::power);
+    set_later.set("in.power", 40e3);
+    set_later.block.solve();
+    EXPECT_EQ(set_later.get("cell.current_density"), from_config.get("cell.current_density"));
+    // Each stack carries half: the current of all stacks is j·A·2.
+    EXPECT_NEAR(from_config.get("stack.current"), from_config.get("cell.current_density") * 0.05 * 2, 1e-9);
+    Probe by_current(plant("pem", R"({"stack":{"cells":20,"active_area":0.05,"stacks":2},
+                                     "operating":{"spec":"current","current":1000}})"));
+    by_current.block.solve();
+    EXPECT_NEAR(by_current.get("cell.current_density"), 1000 / (0.05 * 2), 1e-9);
+}
+
+TEST(UnitSpecs, TargetsBelowTheSmallestCurrentDensityAreInfeasible) {
+    // At 30 bar the membrane passes enough hydrogen that a PEM cell needs a minimum current
+    // to make net gas; a power or hydrogen target under it cannot be met.
+    Probe p(plant("pem", R"({"operating":{"spec":"power","power":1000,"pressure_cathode":"30 bar"}})"));
+    p.set("in.power", 1.0);
+    ely::test::expect_error([&] { p.block.solve(); }, ErrorKind::infeasible, "smallest current density");
+    const double j_min = p.block.cell().current_density_minimum({1e4, p.get("in.temperature"), 101325, 30e5});
+    EXPECT_GT(j_min, 0.0);
+    // Just above the minimum the power spec solves, and lands above it.
+    p.set("in.power", 20 * 3 * 0.05 * 1.5 * 3 * j_min);
+    p.block.solve();
+    EXPECT_GT(p.get("cell.current_density"), j_min);
+    EXPECT_GT(p.get("product.hydrogen"), 0.0);
+}
+
+// --- Plant: rectifier, degradation, alarms ----------------------------------------------------
 
 TEST(UnitPlant, RectifierAndAuxiliariesFollowTheirLossModel) {
     // P_loss = P_rated·(a0 + a1·x + a2·x²), x = P_DC/P_rated; auxiliaries fixed + k·P_DC; the
     // AC power is their sum with the DC power (defaults: 0.5 %, 1 %, 1.5 %; 3 %).
-    Probe p(minimal("pem", R"(,"plant":{"rectifier":{"rated_power":"200 kW"},"auxiliaries":{"fixed":"5 kW"}})"));
+    Probe p(plant("pem", R"({"plant":{"rectifier":{"rated_power":"200 kW"},"auxiliaries":{"fixed":"5 kW"}}})"));
     for (double j : {2000.0, 10000.0, 20000.0}) {
         p.set("in.current_density", j);
         p.block.solve();
@@ -270,8 +456,86 @@ TEST(UnitPlant, RectifierAndAuxiliariesFollowTheirLossModel) {
     }
 }
 
-TEST(UnitAlarms, LowLoadRaisesHydrogenInOxygenWarning) {
-    Probe p(minimal("alkaline"));
+TEST(UnitPlant, DegradationAddsToTheOhmicPart) {
+    // 4 uV/h and 1e-4 ohm cm2/h (invented test rates): after h hours at j the cell voltage rises
+    // by 4e-6·h + 1e-8·h·j (1e-4 ohm cm2 = 1e-8 ohm m2), all of it in the ohmic part, and the
+    // breakdown still sums.
+    Probe fresh(plant("pem", R"({"plant":{"degradation":{"voltage_rate":"4 uV/h","resistance_rate":"1e-4 ohm cm2/h"}}})"));
+    Probe aged(plant("pem", R"({"plant":{"degradation":{"voltage_rate":"4 uV/h","resistance_rate":"1e-4 ohm cm2/h"}}})"));
+    for (double hours : {1000.0, 20000.0}) {
+        aged.set("in.hours_operated", hours);
+        fresh.block.solve();
+        aged.block.solve();
+        const double j = fresh.get("cell.current_density");
+        const double rise = 4e-6 * hours + 1e-8 * hours * j;
+        EXPECT_NEAR(aged.get("cell.degradation"), rise, 1e-15);
+        EXPECT_NEAR(aged.get("cell.voltage") - fresh.get("cell.voltage"), rise, 1e-12);
+        EXPECT_NEAR(aged.get("cell.ohmic") - fresh.get("cell.ohmic"), rise, 1e-12);
+        EXPECT_EQ(aged.get("cell.reversible_voltage"), fresh.get("cell.reversible_voltage"));
+        EXPECT_EQ(fresh.get("cell.degradation"), 0.0);
+        EXPECT_GT(aged.get("perf.specific_energy"), fresh.get("perf.specific_energy"));
+    }
+}
+
+// Every alarm, raised on its own by a situation made for it; the solve warns and its message
+// carries the alarm's label; alarm.any follows.
+struct AlarmCase {
+    const char* alarm;
+    const char* technology;
+    const char* extra;
+    const char* input;
+    double value;
+};
+void PrintTo(const AlarmCase& c, std::ostream* os) { *os << c.alarm; }
+
+class UnitAlarms : public ::testing::TestWithParam<AlarmCase> {};
+
+TEST_P(UnitAlarms, EachAlarmIsRaisedAndNamed) {
+    const AlarmCase& c = GetParam();
+    Probe p(plant(c.technology, c.extra));
+    const auto quiet = p.block.solve();
+    EXPECT_FALSE(quiet.warning) << quiet.message;
+    EXPECT_EQ(p.get("alarm.any"), 0.0);
+    p.set(c.input, c.value);
+    const auto outcome = p.block.solve();
+    EXPECT_TRUE(outcome.warning);
+    EXPECT_EQ(p.get(c.alarm), 1.0);
+    EXPECT_EQ(p.get("alarm.any"), 1.0);
+    EXPECT_THAT(outcome.message, HasSubstr(p.block.variable(p.block.find(c.alarm)).label));
+    for (int a = alarm_first; a <= alarm_last; ++a) {
+        const char* other = variable_info(Var(a)).name;
+        const bool implied = std::string(c.alarm) == "alarm.h2_in_o2_trip" && std::string(other) == "alarm.h2_in_o2_warning";
+        if (std::string(other) != c.alarm && !implied && std::string(other) != "alarm.load_low") {
+            EXPECT_EQ(p.get(other), 0.0) << other << " raised with " << c.alarm;
+        }
+    }
+}
+
+INSTANTIATE_TEST_SUITE_P(
+    EveryAlarm, UnitAlarms,
+    ::testing::Values(
+        // The PEM cases give the anode a recombination catalyst, so that its gas stays below the
+        // warning level (without one, the published crossover puts it near the trip level).
+        // Hydrogen in oxygen: an alkaline stack at 30 bar and low load (levels lowered for the
+        // warning so that only it fires).
+        AlarmCase{"alarm.h2_in_o2_warning", "alkaline",
+                  R"({"operating":{"pressure_cathode":"30 bar","pressure_anode":"30 bar"},
+                      "plant":{"alarms":{"h2_in_o2_warning":0.003,"h2_in_o2_trip":0.039},"limits":{"min_load_fraction":0}}})",
+                  "in.current_density", 1000},
+        AlarmCase{"alarm.h2_in_o2_trip", "alkaline",
+                  R"({"operating":{"pressure_cathode":"30 bar","pressure_anode":"30 bar"},
+                      "plant":{"alarms":{"h2_in_o2_warning":0.002,"h2_in_o2_trip":0.003},"limits":{"min_load_fraction":0}}})",
+                  "in.current_density", 1000},
+        AlarmCase{"alarm.temperature_high", "pem", R"({"cell":{"h2_recombination_fraction_anode":0.9},"plant":{"limits":{"temperature_max":"85 degC"}}})",
+                  "in.temperature", 359.15},
+        AlarmCase{"alarm.current_density_high", "pem", R"({"cell":{"h2_recombination_fraction_anode":0.9},"plant":{"limits":{"current_density_max":"2 A/cm2"}}})",
+                  "in.current_density", 2.2e4},
+        AlarmCase{"alarm.load_low", "pem", R"({"cell":{"h2_recombination_fraction_anode":0.9}})", "in.current_density", 1500},
+        AlarmCase{"alarm.extrapolated", "pem", R"({"cell":{"h2_recombination_fraction_anode":0.9}})", "in.temperature", 368.15}),
+    [](const ::testing::TestParamInfo<AlarmCase>& info) { return std::string(info.param.alarm).substr(6); });
+
+TEST(UnitAlarms, LowLoadRaisesHydrogenInOxygenProgressively) {
+    Probe p(plant("alkaline"));
     p.block.solve();
     const double j_max = p.get("param.current_density_max");
     p.set("in.current_density", 0.5 * j_max);
@@ -292,8 +556,191 @@ TEST(UnitAlarms, LowLoadRaisesHydrogenInOxygenWarning) {
     EXPECT_TRUE(warned);
 }
 
+// --- Tunable parameters -----------------------------------------------------------------------
+
+TEST(UnitParameters, SettingAParameterEqualsConfiguringIt) {
+    // Set through the block or given in the plant description: the same solution, bit for bit
+    // (cell parameters rebuild the cell; the automatic rectifier rating follows).
+    struct Case {
+        const char* technology;
+        const char* variable;
+        double value;
+        const char* config;
+    };
+    const Case cases[] = {
+        {"pem", "param.cell.anode_exchange_current_density", 3e-3, R"({"cell":{"anode_exchange_current_density":3e-3}})"},
+        {"pem", "param.cell.membrane_thickness", 50.8e-6, R"({"cell":{"membrane_thickness":50.8e-6}})"},
+        {"alkaline", "param.cell.koh_mass_fraction", 0.25, R"({"cell":{"koh_mass_fraction":0.25}})"},
+        {"brine", "param.cell.brine_feed_nacl_mass_fraction", 0.25, R"({"cell":{"brine_feed_nacl_mass_fraction":0.25}})"},
+        {"pem", "param.degradation.voltage_rate", 1e-5, R"({"plant":{"degradation":{"voltage_rate":1e-5}}})"},
+        {"pem", "param.limits.min_load_fraction", 0.6, R"({"plant":{"limits":{"min_load_fraction":0.6}}})"},
+        {"pem", "param.current_density_max", 1.5e4, R"({"plant":{"limits":{"current_density_max":1.5e4}}})"},
+        {"pem", "param.rectifier.loss_linear", 0.02, R"({"plant":{"rectifier":{"loss_linear":0.02}}})"},
+        {"solid_oxide", "param.thermal.heat_loss_coefficient", 50, R"({"plant":{"thermal":{"heat_loss_coefficient":50}}})"},
+    };
+    for (const auto& c : cases) {
+        SCOPED_TRACE(c.variable);
+        Probe set(plant(c.technology, R"({"operating":{"hours_operated":5000}})"));
+        Probe configured(plant(c.technology, c.config));
+        configured.set("in.hours_operated", 5000);
+        // The config settles the default current density from the limits: give both the same one.
+        set.set("in.current_density", 0.4 * configured.get("param.current_density_max"));
+        configured.set("in.current_density", 0.4 * configured.get("param.current_density_max"));
+        set.block.solve();  // a solution before the change: it goes stale
+        set.set(c.variable, c.value);
+        EXPECT_EQ(set.get(c.variable), c.value);
+        EXPECT_FALSE(set.block.solved());
+        set.block.solve();
+        configured.block.solve();
+        for (int32_t i = 0; i < set.block.variable_count(); ++i) {
+            const double a = set.block.get(i), b = configured.block.get(i);
+            if (std::isnan(b)) EXPECT_TRUE(std::isnan(a)) << set.block.variable(i).name;
+            else EXPECT_EQ(a, b) << set.block.variable(i).name;
+        }
+    }
+}
+
+TEST(UnitParameters, CellParameterChangesAreCopyOnWrite) {
+    Probe a(plant("pem"));
+    a.block.solve();
+    Block b = a.block;  // a clone shares the cell
+    EXPECT_EQ(&a.block.cell(), &b.cell());
+    const double configured = a.get("param.cell.contact_resistance");
+    a.set("param.cell.contact_resistance", 4 * configured);
+    EXPECT_NE(&a.block.cell(), &b.cell());
+    a.block.solve();
+    b.solve();
+    EXPECT_GT(a.get("cell.ohmic"), b.get(b.find("cell.ohmic")));
+    EXPECT_EQ(b.get(b.find("param.cell.contact_resistance")), configured);  // the clone keeps its value
+    EXPECT_EQ(a.block.design().cell_parameters->get("contact_resistance"), configured);  // as configured
+}
+
+TEST(UnitParameters, LimitsStructuralParametersAndFailedRebuildsChangeNothing) {
+    Probe p(plant("alkaline"));
+    p.block.solve();
+    const double v = p.get("cell.voltage");
+    const auto refused = [&](const char* name, double value, ErrorKind kind, const char* fragment) {
+        SCOPED_TRACE(name);
+        const double before = p.get(name);
+        ely::test::expect_error([&] { p.set(name, value); }, kind, fragment);
+        EXPECT_EQ(p.get(name), before);
+        EXPECT_TRUE(p.block.solved());  // a failed set leaves the solution current
+    };
+    refused("param.cells", 50, ErrorKind::invalid_argument, "$.stack.cells");
+    refused("param.stacks", 2, ErrorKind::invalid_argument, "structural");
+    refused("param.active_area", 1, ErrorKind::invalid_argument, "structural");
+    refused("param.cell.koh_mass_fraction", 0.6, ErrorKind::invalid_argument, "above 0.45");  // table limit
+    refused("param.cell.kinetics_model", 0.5, ErrorKind::invalid_argument, "kinetics_model");  // the cell refuses
+    refused("param.limits.min_load_fraction", -0.1, ErrorKind::invalid_argument, "below 0");
+    refused("param.alarms.h2_in_o2_warning", 0.03, ErrorKind::invalid_argument, "must be below");  // above the trip
+    refused("param.alarms.lower_flammability_limit", 0.015, ErrorKind::invalid_argument, "must be below");
+    refused("in.temperature", 0, ErrorKind::invalid_argument, "not above 0 K");
+    refused("in.feed_temperature", 2000, ErrorKind::invalid_argument, "above 1273.15 K");
+    refused("cell.voltage", 2, ErrorKind::invalid_argument, "an output");
+    EXPECT_EQ(p.get("cell.voltage"), v);
+}
+
+TEST(UnitParameters, AFailedSolveRollsParametersBack) {
+    Probe p(plant("pem"));
+    p.block.solve();
+    const double v = p.get("cell.voltage");
+    const double configured = p.get("param.cell.contact_resistance");
+    p.set("param.cell.contact_resistance", 1e-3);  // a large resistance ...
+    p.block.set_spec(Spec::power);
+    p.set("in.power", 1e12);  // ... and a power no plant reaches
+    EXPECT_THROW(p.block.solve(), Error);
+    EXPECT_EQ(p.get("param.cell.contact_resistance"), configured);
+    EXPECT_EQ(p.get("cell.voltage"), v);
+    p.block.solve();  // solves again at the restored state
+    EXPECT_EQ(p.get("cell.voltage"), v);
+}
+
+TEST(UnitParameters, ZeroCurrentDensityMaximumMeansTheCellModelsOwn) {
+    Probe p(plant("pem"));
+    const double own = p.block.cell().envelope().current_density_max;
+    EXPECT_EQ(p.get("param.current_density_max"), own);
+    EXPECT_EQ(p.block.start(p.block.find("param.current_density_max")), 0.0);  // as configured
+    p.set("param.current_density_max", 1e4);
+    EXPECT_EQ(p.get("param.current_density_max"), 1e4);
+    p.set("param.current_density_max", 0);
+    EXPECT_EQ(p.get("param.current_density_max"), own);
+}
+
+// --- The table, the summary layout, display units ---------------------------------------------
+
+TEST(UnitTable, EveryTechnologyHasItsVariablesAndSummary) {
+    for (const auto& t : technologies()) {
+        SCOPED_TRACE(t.name);
+        Block b(load_config_file(source_path(t.example)));
+        for (int i = 0; i < kVarCount; ++i) {
+            const VariableInfo& v = variable_info(Var(i));
+            const bool present = [&] {
+                try {
+                    b.find(v.name);
+                    return true;
+                } catch (const Error&) {
+                    return false;
+                }
+            }();
+            EXPECT_EQ(present, t.has(v.needs)) << v.name;
+        }
+        // Every name of the summary layout is a variable of the technology, and ranks run 1..n.
+        for (const auto& g : t.summary)
+            for (const char* name : g.variables) EXPECT_NO_THROW(b.find(name)) << name;
+        std::vector<int32_t> ranks;
+        for (int32_t i = 0; i < b.variable_count(); ++i)
+            if (b.summary_rank(i) > 0) {
+                ranks.push_back(b.summary_rank(i));
+                EXPECT_STRNE(b.summary_group(i), "") << b.variable(i).name;
+            } else {
+                EXPECT_STREQ(b.summary_group(i), "") << b.variable(i).name;
+            }
+        std::sort(ranks.begin(), ranks.end());
+        for (std::size_t k = 0; k < ranks.size(); ++k) EXPECT_EQ(ranks[k], static_cast<int32_t>(k + 1));
+        // One tunable parameter per cell key.
+        if (!t.parameters) continue;
+        for (const auto& p : t.parameters()) EXPECT_NO_THROW(b.find(std::string("param.cell.") + p.key)) << p.key;
+    }
+}
+
+TEST(UnitTable, NamingRuleOfParameters) {
+    // param. + the config path without "$." and "$.plant." — except the structural names hosts
+    // already rely on.
+    for (int i = 0; i < kVarCount; ++i) {
+        const VariableInfo& v = variable_info(Var(i));
+        if (v.causality != Causality::parameter) continue;
+        std::string path = v.config_key;
+        path = path.rfind("$.plant.", 0) == 0 ? path.substr(8) : path.substr(2);
+        const std::string kept[] = {"param.cells", "param.stacks", "param.active_area", "param.current_density_max"};
+        if (std::find(std::begin(kept), std::end(kept), v.name) != std::end(kept)) continue;
+        EXPECT_EQ(std::string(v.name), "param." + path);
+        EXPECT_EQ(v.variability, Variability::tunable) << v.name;
+    }
+}
+
+TEST(UnitTable, DisplayUnitsAgreeWithTheUnitParser) {
+    // The display conversion of every variable (display = SI·scale + offset) against the
+    // config's unit parser, which reads "1 <display unit>" into SI from its own unit table
+    // (SI Brochure prefixes and units; NIST SP 811): scale·SI(1 display unit) + offset = 1.
+    int checked = 0;
+    for (const auto& t : technologies()) {
+        Block b(load_config_file(source_path(t.example)));
+        for (int32_t i = 0; i < b.variable_count(); ++i) {
+            const VariableInfo& v = b.variable(i);
+            if (!v.display.symbol) continue;
+            SCOPED_TRACE(v.name);
+            const double one = parse_quantity(std::string("1 ") + v.display.symbol, v.unit);
+            EXPECT_NEAR(one * v.display.scale + v.display.offset, 1.0, 1e-12);
+            ++checked;
+        }
+    }
+    EXPECT_GT(checked, 40);
+}
+
+// --- Life cycle, examples, custom cell, report ------------------------------------------------
+
 TEST(UnitLifeCycle, OutputsAreStaleAfterASetAndInputsAreChecked) {
-    Probe p(minimal("pem"));
+    Probe p(plant("pem"));
     EXPECT_THROW(p.get("cell.voltage"), Error);
     p.block.solve();
     const double v = p.get("cell.voltage");
@@ -304,52 +751,30 @@ TEST(UnitLifeCycle, OutputsAreStaleAfterASetAndInputsAreChecked) {
     } catch (const Error& e) {
         EXPECT_EQ(e.kind(), ErrorKind::wrong_state);
     }
-    try {
-        p.set("in.power", 1e6);  // not the active spec
-        FAIL();
-    } catch (const Error& e) {
-        EXPECT_EQ(e.kind(), ErrorKind::wrong_state);
-        EXPECT_THAT(e.what(), HasSubstr("current_density"));
-    }
+    // An input the spec does not read is stored (a co-simulation master sets every input at
+    // every step); the spec decides what the solve reads.
+    p.set("in.power", 1e6);
+    EXPECT_EQ(p.get("in.power"), 1e6);
     EXPECT_THROW(p.set("cell.voltage", 2.0), Error);
     EXPECT_THROW(p.set("in.temperature", std::nan("")), Error);
     EXPECT_THROW(p.set("in.pressure_anode", -1.0), Error);
     EXPECT_EQ(p.get("in.temperature"), 340.0);  // failed sets changed nothing
     p.block.solve();
     EXPECT_NE(p.get("cell.voltage"), v);  // colder: a different voltage
-}
-
-TEST(UnitSpecs, TargetsBelowTheSmallestCurrentDensityAreInfeasible) {
-    // At 30 bar the membrane passes enough hydrogen that a PEM cell needs a minimum current
-    // to make net gas; a power or hydrogen target under it cannot be met.
-    Probe p(R"({"technology":"pem","stack":{"cells":20,"active_area":0.05,"stacks":3},
-                "operating":{"spec":"power","power":1000,"pressure_cathode":"30 bar"}})");
-    p.set("in.power", 1.0);
-    try {
-        p.block.solve();
-        FAIL() << "1 W accepted";
-    } catch (const Error& e) {
-        EXPECT_EQ(e.kind(), ErrorKind::infeasible);
-        EXPECT_THAT(e.what(), HasSubstr("smallest current density"));
-    }
-    const double j_min = p.block.design().cell->current_density_minimum({1e4, p.get("in.temperature"), 101325, 30e5});
-    EXPECT_GT(j_min, 0.0);
-    // Just above the minimum the power spec solves, and lands above it.
-    p.set("in.power", 20 * 3 * 0.05 * 1.5 * 3 * j_min);
-    p.block.solve();
-    EXPECT_GT(p.get("cell.current_density"), j_min);
-    EXPECT_GT(p.get("product.hydrogen"), 0.0);
+    EXPECT_EQ(p.get("in.power"), 1e6);    // stored, not read, not overwritten
+    EXPECT_NE(p.get("stack.power"), 1e6);
 }
 
 TEST(UnitExamples, EveryBundledConfigurationSolves) {
-    const char* files[] = {"examples/demo-plant.json",       "examples/zinc-electrowinning.json",
-                           "examples/minimal/pem.json",      "examples/minimal/alkaline.json",
-                           "examples/minimal/solid_oxide.json", "examples/minimal/brine.json",
-                           "examples/minimal/custom.json"};
+    const char* files[] = {"examples/demo-plant.json", "examples/zinc-electrowinning.json"};
     for (const char* f : files) {
-        Block b(load_config_file(std::string(ELY_SOURCE_DIR) + "/" + f));
+        Block b(load_config_file(source_path(f)));
         EXPECT_NO_THROW(b.solve()) << f;
         EXPECT_TRUE(b.solved()) << f;
+    }
+    for (const auto& t : technologies()) {
+        Block b(load_config_file(source_path(t.example)));
+        EXPECT_NO_THROW(b.solve()) << t.example;
     }
 }
 
@@ -357,7 +782,7 @@ TEST(UnitCustom, ReactionSharesAndProductRatesThroughTheBlock) {
     // Zinc deposition competing with hydrogen evolution (the invented demo cell): shares at
     // each electrode sum to 1; each product rate is Faraday's law on its share; hydrogen's
     // share grows as the zinc-ion limiting current is approached.
-    Block b(load_config_file(std::string(ELY_SOURCE_DIR) + "/examples/zinc-electrowinning.json"));
+    Block b(load_config_file(source_path("examples/zinc-electrowinning.json")));
     const auto get = [&](const char* n) { return b.get(b.find(n)); };
     double previous_h2_share = -1;
     for (double j : {200.0, 500.0, 900.0, 1200.0}) {
@@ -374,4 +799,21 @@ TEST(UnitCustom, ReactionSharesAndProductRatesThroughTheBlock) {
         previous_h2_share = h2;
     }
     EXPECT_THROW(b.find("product.chlorine"), Error);
+}
+
+TEST(UnitReport, JsonNamesTheDriveInputAndEveryVariable) {
+    Probe p(plant("brine", R"({"name":"a \"quoted\" name\\with a backslash"})"));
+    p.block.set_spec(Spec::current);
+    p.set("in.current", 500);
+    p.block.solve();
+    const json::object r = json::parse(p.block.report_json()).as_object();
+    EXPECT_EQ(r.at("technology").as_string(), "brine");
+    EXPECT_EQ(r.at("spec").as_string(), "current");
+    EXPECT_EQ(r.at("drive_input").as_string(), "in.current");
+    EXPECT_EQ(r.at("name").as_string(), "a \"quoted\" name\\with a backslash");
+    const auto& vars = r.at("variables").as_object();
+    EXPECT_EQ(static_cast<int32_t>(vars.size()), p.block.variable_count());
+    EXPECT_EQ(json::value_to<double>(vars.at("stack.current").at("value")), p.get("stack.current"));
+    EXPECT_EQ(vars.at("stream.brine_feed.mass_flow").at("unit").as_string(), "kg/s");
+    EXPECT_TRUE(vars.at("in.power").at("value").is_null());  // never given: no value
 }

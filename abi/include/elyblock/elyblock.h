@@ -103,17 +103,44 @@ typedef struct ely_block ely_block;
 
 #define ELY_CAUSALITY_INPUT 0
 #define ELY_CAUSALITY_OUTPUT 1
-#define ELY_CAUSALITY_PARAMETER 2 /* fixed by the configuration; readable, not settable */
+#define ELY_CAUSALITY_PARAMETER 2 /* readable; settable only when its variability is TUNABLE */
+
+/* How a variable may change (the FMI meanings). */
+#define ELY_VARIABILITY_FIXED 0      /* set by the plant description only (structural parameters) */
+#define ELY_VARIABILITY_TUNABLE 1    /* a parameter a host may set between solves (ely_block_set) */
+#define ELY_VARIABILITY_CONTINUOUS 2 /* inputs and outputs that vary continuously */
+#define ELY_VARIABILITY_DISCRETE 3   /* 0/1 alarms and other stepwise outputs */
+
+/* Bits of ely_variable_info.flags. */
+#define ELY_VARIABLE_MIN_EXCLUSIVE 1 /* the value must be above min, not equal to it */
 
 /* Description of one variable. The caller sets struct_size = sizeof(ely_variable_info);
- * later versions of this struct only grow at the end. Strings are owned by the library
- * and stay valid while the block, or any clone of it, exists. */
+ * later versions of this struct only grow at the end, and the library fills only the members
+ * that fit in struct_size (a caller built against the first version, whose struct ends after
+ * description, keeps working). Strings are owned by the library and stay valid while the
+ * block, or any clone of it, exists. */
 typedef struct ely_variable_info {
     uint32_t struct_size;
     int32_t causality;       /* ELY_CAUSALITY_* */
     const char* name;        /* "group.quantity" */
     const char* unit;        /* SI unit, "1" for dimensionless */
     const char* description;
+    /* ---- second version of the struct: everything below ---- */
+    int32_t variability;     /* ELY_VARIABILITY_* */
+    uint32_t flags;          /* ELY_VARIABLE_* bits */
+    double min, max;         /* SI limits that ely_block_set enforces on inputs and tunable parameters;
+                                -HUGE_VAL / HUGE_VAL when unbounded (for outputs: bounds they keep) */
+    double start;            /* inputs and parameters: the value the plant description gave (or its
+                                default); NaN for outputs and for a drive input never given */
+    double nominal;          /* typical magnitude, for scaling (> 0) */
+    const char* label;       /* short display label, e.g. "stack temperature" */
+    const char* display_unit;  /* preferred display unit, e.g. "degC" (the SI unit when no other) */
+    double display_scale;    /* display value = SI value * display_scale + display_offset */
+    double display_offset;
+    const char* summary_group; /* heading of the variable's section in the technology's summary; "" if not shown */
+    const char* config_key;  /* JSON path of the plant-description key that sets its start value,
+                                e.g. "$.operating.temperature"; "" when none */
+    int32_t summary_rank;    /* position (1, 2, ...) in the technology's summary; 0 when not shown */
 } ely_variable_info;
 
 /* Progress of a long call: return 0 to go on, non-zero to cancel. */
@@ -135,12 +162,19 @@ ELY_API void ely_block_destroy(ely_block* block);                      /* NULL i
 ELY_API int32_t ely_block_variable_count(const ely_block* block, int32_t* count);
 ELY_API int32_t ely_block_variable_info(const ely_block* block, int32_t index, ely_variable_info* info);
 ELY_API int32_t ely_block_find(const ely_block* block, const char* name, int32_t* index);
+/* Sets an input or a tunable parameter (checked against min/max; a cell parameter rebuilds
+ * that block's cell model, clones keep theirs). Any input may be set whatever the spec: the
+ * spec decides which drive input the solve reads. An output or a fixed (structural) parameter
+ * gives ELY_ERR_INVALID_ARGUMENT; a failed set changes nothing. */
 ELY_API int32_t ely_block_set(ely_block* block, int32_t index, double value);
 ELY_API int32_t ely_block_get(const ely_block* block, int32_t index, double* value);
 
 /* Selects which drive input the solve reads: "current_density", "current", "power",
  * "hydrogen_rate" or "voltage" (the config's operating.spec is the initial choice). */
 ELY_API int32_t ely_block_set_spec(ely_block* block, const char* spec);
+
+/* The spec in force: *spec receives its name (static storage, never freed). */
+ELY_API int32_t ely_block_get_spec(const ely_block* block, const char** spec);
 
 /* Steady state at the current inputs. ELY_OK, ELY_WARNING (an alarm is raised; the
  * message says which; outputs valid), or an error (block rolled back). */

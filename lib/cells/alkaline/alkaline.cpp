@@ -22,7 +22,6 @@
 #include <vector>
 
 #include "cells/cell_support.hpp"
-#include "cells/technologies.hpp"
 #include "electrochem/conduction.hpp"
 #include "electrochem/crossover.hpp"
 #include "electrochem/electrolyte.hpp"
@@ -178,7 +177,6 @@ public:
         }
     }
 
-    Technology technology() const override { return Technology::alkaline; }
     const Envelope& envelope() const override { return envelope_; }
     std::unique_ptr<Cell> clone() const override { return std::make_unique<AlkalineCell>(*this); }
 

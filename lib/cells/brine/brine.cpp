@@ -3,12 +3,12 @@
 // cathode (activated nickel): 2 H2O + 2 e⁻ → H2 + 2 OH⁻. Equations and every default with its
 // source: docs/cells-brine-custom.md.
 #include "cells/brine/brine.hpp"
+#include "cells/brine/brine_loop.hpp"
 
 #include <cmath>
 #include <fmt/format.h>
 
 #include "cells/cell_support.hpp"
-#include "cells/technologies.hpp"
 #include "electrochem/conduction.hpp"
 #include "electrochem/electrolyte.hpp"
 #include "electrochem/kinetics.hpp"
@@ -41,17 +41,21 @@ struct BrineSettings {
     double anolyte_gap, anolyte_void_fraction, catholyte_gap, catholyte_void_fraction;
     ArrheniusConductivity anolyte_conductivity, catholyte_conductivity;
     double contact_asr;
+    double feed_nacl_molality;  // resaturated brine fed to the anolyte, mol/kg (brine loop outputs)
 };
 
 class BrineCell final : public Cell {
 public:
     explicit BrineCell(const BrineSettings& s)
         : s_(s), naoh_molality_(molality_from_mass_fraction(s.naoh_mass_fraction, molar_mass::NaOH)) {}
-    Technology technology() const override { return Technology::brine; }
     const Envelope& envelope() const override { return kBrineEnvelope; }
     std::unique_ptr<Cell> clone() const override { return std::make_unique<BrineCell>(*this); }
     double current_density_limit(const OperatingPoint&) const override { return kBrineEnvelope.current_density_max; }
     CellResult evaluate(const OperatingPoint& point) const override;
+    const std::vector<VariableInfo>& own_outputs() const override { return brine_loop_outputs(); }
+    void fill_own_outputs(const CellResult& r, const PlantFlows& flows, double* values) const override {
+        fill_brine_loop(r, flows, s_.feed_nacl_molality, values);
+    }
 
 private:
     double area_specific_resistance(double temperature) const;
@@ -210,6 +214,10 @@ const std::vector<ParameterInfo>& brine_parameters() {
          "Arrhenius activation energy of anolyte and catholyte conductivity (about 1.4 %/K at 90 C)", kTypical},
         {"contact_asr", "ohm m2", 5.0e-6, 0.0, 1e-2, "electronic and contact resistance of electrodes and structure",
          kTypical},
+        {"brine_feed_nacl_mass_fraction", "1", 0.26, 0.05, 0.27,
+         "NaCl mass fraction of the resaturated brine fed to the anolyte; sets the brine circulation of the brine-loop "
+         "outputs (must be stronger than the depleted anolyte)",
+         "resaturated brine about 300-310 g/L, 26 wt % (common practice, from memory)"},
     };
     return infos;
 }
@@ -238,6 +246,13 @@ std::unique_ptr<Cell> make_brine_cell(const ParameterValues& v) {
     s.anolyte_conductivity = {v.get("anolyte_conductivity"), t_ref, ea_el};
     s.catholyte_conductivity = {v.get("catholyte_conductivity"), t_ref, ea_el};
     s.contact_asr = v.get("contact_asr");
+    const double feed_fraction = v.get("brine_feed_nacl_mass_fraction");
+    s.feed_nacl_molality = molality_from_mass_fraction(feed_fraction, molar_mass::NaCl);
+    if (!(s.feed_nacl_molality > s.nacl_molality))
+        throw Error(ErrorKind::invalid_argument,
+                    fmt::format("brine_feed_nacl_mass_fraction {:g} ({:.4g} mol/kg) is not stronger than the depleted "
+                                "anolyte, anolyte_nacl_molality {:.4g} mol/kg",
+                                feed_fraction, s.feed_nacl_molality, s.nacl_molality));
     // The efficiency must stay positive at the chosen caustic strength: checked once here.
     brine_caustic_current_efficiency(s.naoh_mass_fraction, s.efficiency_at_32wt, s.efficiency_slope);
     return std::make_unique<BrineCell>(s);

@@ -1,6 +1,6 @@
 #pragma once
-// Chlor-alkali membrane cell (brine electrolysis): helpers beside the factory declared in
-// cells/technologies.hpp (brine_parameters(), make_brine_cell()). Equations, defaults and
+// Chlor-alkali membrane cell (brine electrolysis): helpers beside the factory that the
+// technology registry names (brine_parameters(), make_brine_cell()). Equations, defaults and
 // their sources: docs/cells-brine-custom.md.
 #include "cells/cell.hpp"
 

@@ -20,7 +20,6 @@
 #include <vector>
 
 #include "cells/cell_support.hpp"
-#include "cells/technologies.hpp"
 #include "electrochem/conduction.hpp"
 #include "electrochem/crossover.hpp"
 #include "electrochem/kinetics.hpp"
@@ -121,7 +120,6 @@ public:
           recombination_{v.get("o2_recombination_fraction"), v.get("h2_recombination_fraction_anode")},
           drag_(v.get("electroosmotic_drag")) {}
 
-    Technology technology() const override { return Technology::pem; }
     const Envelope& envelope() const override { return envelope_; }
     std::unique_ptr<Cell> clone() const override { return std::make_unique<PemCell>(*this); }
 

@@ -23,7 +23,6 @@
 #include <vector>
 
 #include "cells/cell_support.hpp"
-#include "cells/technologies.hpp"
 #include "electrochem/conduction.hpp"
 #include "electrochem/kinetics.hpp"
 #include "base/check.hpp"
@@ -108,7 +107,6 @@ public:
         x_steam_out_ = x_steam_in_ * (1.0 - utilisation_);
     }
 
-    Technology technology() const override { return Technology::solid_oxide; }
     const Envelope& envelope() const override { return envelope_; }
     std::unique_ptr<Cell> clone() const override { return std::make_unique<SolidOxideCell>(*this); }
 

@@ -1,0 +1,271 @@
+// The key tables of the plant description (see key_tables.hpp).
+#include "config/key_tables.hpp"
+
+#include <cstring>
+
+namespace ely::config_keys {
+
+namespace {
+
+template <class T>
+Field<T> quantity(const char* key, const char* unit, double lo, double hi, double& (*number)(T&),
+                  const char* description) {
+    Field<T> f{key, Type::quantity, description};
+    f.unit = unit;
+    f.lo = lo;
+    f.hi = hi;
+    f.number = number;
+    return f;
+}
+
+template <class T>
+Field<T> count(const char* key, int lo, int hi, int& (*integer)(T&), const char* description) {
+    Field<T> f{key, Type::count, description};
+    f.lo = lo;
+    f.hi = hi;
+    f.integer = integer;
+    return f;
+}
+
+template <class T>
+Field<T> flag(const char* key, bool& (*accessor)(T&), const char* description) {
+    Field<T> f{key, Type::flag, description};
+    f.flag = accessor;
+    return f;
+}
+
+template <class T>
+Field<T> text(const char* key, std::string& (*accessor)(T&), const char* description) {
+    Field<T> f{key, Type::text, description};
+    f.text = accessor;
+    return f;
+}
+
+template <class T>
+Field<T> section(const char* key, const std::vector<Field<T>>& children, const char* description) {
+    Field<T> f{key, Type::section, description};
+    f.children = &children;
+    return f;
+}
+
+using PlantField = Field<PlantDesign>;
+
+/// The key that configures variable v: its name is the last part of the variable's config
+/// path; unit, limits, default and meaning are the variable's.
+PlantField variable(Var v, Type type = Type::quantity) {
+    const VariableInfo& info = variable_info(v);
+    PlantField f{std::strrchr(info.config_key, '.') + 1, type, info.description};
+    f.unit = info.unit;
+    f.lo = info.min;
+    f.hi = info.max;
+    f.lo_open = info.min_exclusive;
+    f.var = v;
+    return f;
+}
+
+const std::vector<PlantField>& stack_fields() {
+    static const std::vector<PlantField> fields = {
+        variable(par_cells, Type::count).mandatory(),
+        variable(par_active_area).mandatory(),
+        variable(par_stacks, Type::count),
+    };
+    return fields;
+}
+
+const std::vector<PlantField>& rectifier_fields() {
+    static const std::vector<PlantField> fields = {
+        variable(par_rectifier_rated_power),
+        variable(par_rectifier_loss_no_load),
+        variable(par_rectifier_loss_linear),
+        variable(par_rectifier_loss_quadratic),
+    };
+    return fields;
+}
+
+const std::vector<PlantField>& auxiliaries_fields() {
+    static const std::vector<PlantField> fields = {variable(par_auxiliaries_fixed),
+                                                   variable(par_auxiliaries_proportional)};
+    return fields;
+}
+
+const std::vector<PlantField>& limits_fields() {
+    static const std::vector<PlantField> fields = {
+        variable(par_current_density_max),
+        variable(par_min_load_fraction),
+        variable(par_temperature_max),
+    };
+    return fields;
+}
+
+const std::vector<PlantField>& alarms_fields() {
+    static const std::vector<PlantField> fields = {
+        variable(par_alarms_h2_in_o2_warning),
+        variable(par_alarms_h2_in_o2_trip),
+        variable(par_alarms_lower_flammability_limit),
+    };
+    return fields;
+}
+
+const std::vector<PlantField>& degradation_fields() {
+    static const std::vector<PlantField> fields = {variable(par_degradation_voltage_rate),
+                                                   variable(par_degradation_resistance_rate)};
+    return fields;
+}
+
+const std::vector<PlantField>& thermal_fields() {
+    static const std::vector<PlantField> fields = {
+        variable(in_feed_temperature),
+        variable(par_heat_loss_coefficient),
+        variable(par_ambient_temperature),
+    };
+    return fields;
+}
+
+const std::vector<PlantField>& plant_fields() {
+    static const std::vector<PlantField> fields = {
+        section("rectifier", rectifier_fields(), "AC to DC conversion losses"),
+        section("auxiliaries", auxiliaries_fields(), "balance-of-plant power"),
+        section("limits", limits_fields(), "operating limits"),
+        section("alarms", alarms_fields(), "anode-gas purity alarms"),
+        section("degradation", degradation_fields(), "ageing"),
+        section("thermal", thermal_fields(), "feed and heat-loss data"),
+        flag<PlantDesign>("drag_water_returned", [](PlantDesign& d) -> bool& { return d.drag_water_returned; },
+                          "water dragged to the cathode (PEM) is separated and returned to the feed (true) or "
+                          "drained and made up (false)"),
+    };
+    return fields;
+}
+
+const std::vector<PlantField>& operating_fields() {
+    static const char* const kWhenRead = "none: give it when operating.spec reads it";
+    static const std::vector<PlantField> fields = {
+        PlantField{"spec", Type::spec, "which drive input the solve reads; its value must be given"}.mandatory(),
+        variable(in_current_density)
+            .defaults("1e4 A/m2, or half the maximum current density (plant.limits.current_density_max, else "
+                      "the cell model's) if that is lower"),
+        variable(in_current).defaults(kWhenRead),
+        variable(in_power).defaults(kWhenRead),
+        variable(in_hydrogen_rate).defaults(kWhenRead),
+        variable(in_voltage).defaults(kWhenRead),
+        variable(in_temperature)
+            .defaults("the middle of the cell model's fitted temperature range (but not above "
+                      "plant.limits.temperature_max when that is set)"),
+        variable(in_pressure_cathode).defaults("101325 Pa, or the cell model's lowest pressure if that is higher"),
+        variable(in_pressure_anode).defaults("101325 Pa, or the cell model's lowest pressure if that is higher"),
+        variable(in_hours_operated),
+    };
+    return fields;
+}
+
+}  // namespace
+
+const std::vector<PlantField>& root_fields() {
+    static const std::vector<PlantField> fields = {
+        PlantField{"technology", Type::technology, "the cell technology (see *Technologies*)"}.mandatory(),
+        text<PlantDesign>("name", [](PlantDesign& d) -> std::string& { return d.name; }, "free text naming the plant"),
+        section("stack", stack_fields(), "the stacks").mandatory(),
+        PlantField{"cell", Type::cell, "cell-model parameters of the technology, each optional (see below)"},
+        section("plant", plant_fields(), "rectifier, auxiliaries, limits, alarms, degradation, heat"),
+        section("operating", operating_fields(), "the drive specification and the initial inputs").mandatory(),
+        PlantField{"reactions", Type::reactions,
+                   "technologies built from a reaction table only (custom), and required there: the half-reactions "
+                   "of each electrode"},
+    };
+    return fields;
+}
+
+// The custom cell: its "cell" object and the reaction objects of "reactions".
+using ReactionField = Field<HalfReaction>;
+#define ELY_MEMBER(expr) [](HalfReaction& r) -> auto& { return r.expr; }
+
+const std::vector<Field<HalfReaction>>& reaction_fields() {
+    static const std::vector<ReactionField> fields = {
+        text<HalfReaction>("name", ELY_MEMBER(name), "name of the reaction, e.g. \"zinc deposition\"").mandatory(),
+        text<HalfReaction>("product", ELY_MEMBER(product),
+                           "product formula; \"H2\", \"O2\" and \"Cl2\" also fill the gas streams")
+            .mandatory(),
+        count<HalfReaction>("electrons", 1, 12, ELY_MEMBER(electrons), "electrons per formula unit of product"),
+        quantity<HalfReaction>("standard_potential", "V", -5, 5, ELY_MEMBER(standard_potential),
+                               "standard reduction potential vs SHE at 298.15 K, as tabulated (e.g. the CRC "
+                               "electrochemical series)")
+            .mandatory(),
+        quantity<HalfReaction>("standard_potential_temperature_coefficient", "V/K", -0.01, 0.01,
+                               ELY_MEMBER(standard_potential_temperature_coefficient),
+                               "dE°/dT; 0 holds E° at its 25 °C value"),
+        quantity<HalfReaction>("reactant_activity", "1", 0, 1e6, ELY_MEMBER(reactant_activity),
+                               "activity product of the species consumed in the electrolysis direction (the "
+                               "oxidized one at the cathode, the reduced one at the anode)")
+            .above(0),
+        quantity<HalfReaction>("product_activity", "1", 0, 1e6, ELY_MEMBER(product_activity),
+                               "activity product of the other side (solid or gas at unit activity)")
+            .above(0),
+        quantity<HalfReaction>("exchange_current_density", "A/m2", 0, 1e6, ELY_MEMBER(kinetics.exchange_current_density),
+                               "exchange current density at the reference temperature, geometric area")
+            .above(0),
+        quantity<HalfReaction>("activation_energy", "J/mol", 0, 1e6, ELY_MEMBER(kinetics.activation_energy),
+                               "Arrhenius activation energy of the exchange current density")
+            .defaults("not given: then the cell must run at the reference temperature"),
+        quantity<HalfReaction>("reference_temperature", "K", 0, 2000, ELY_MEMBER(kinetics.reference_temperature),
+                               "temperature of the exchange current density")
+            .above(0),
+        quantity<HalfReaction>("alpha_forward", "1", 0, 4, ELY_MEMBER(kinetics.alpha_forward),
+                               "transfer coefficient in the electrolysis direction (oxidation at the anode, "
+                               "reduction at the cathode)")
+            .above(0),
+        quantity<HalfReaction>("alpha_backward", "1", 0, 4, ELY_MEMBER(kinetics.alpha_backward),
+                               "transfer coefficient of the reverse direction")
+            .above(0),
+        quantity<HalfReaction>("limiting_current_density", "A/m2", 0, kInf, ELY_MEMBER(limiting_current_density),
+                               "mass-transport limit of the reactant")
+            .above(0)
+            .defaults("none (no mass-transport limit)"),
+        quantity<HalfReaction>("product_molar_mass", "kg/mol", 0, 10, ELY_MEMBER(product_molar_mass),
+                               "molar mass of the product, for product mass rates (0: not needed)"),
+    };
+    return fields;
+}
+
+#undef ELY_MEMBER
+
+using CustomField = Field<CustomCellSpec>;
+#define ELY_MEMBER(expr) [](CustomCellSpec& c) -> auto& { return c.expr; }
+
+const std::vector<Field<CustomCellSpec>>& custom_cell_fields() {
+    static const std::vector<CustomField> fields = {
+        quantity<CustomCellSpec>("area_specific_resistance", "ohm m2", 0, 1, ELY_MEMBER(area_specific_resistance),
+                                 "electrolyte, separator and contact resistance"),
+        quantity<CustomCellSpec>("temperature_min", "K", 0, 2000, ELY_MEMBER(envelope.temperature_min),
+                                 "lowest temperature the model accepts")
+            .above(0),
+        quantity<CustomCellSpec>("temperature_max", "K", 0, 2000, ELY_MEMBER(envelope.temperature_max),
+                                 "highest temperature the model accepts")
+            .above(0),
+        quantity<CustomCellSpec>("temperature_fit_min", "K", 0, 2000, ELY_MEMBER(envelope.temperature_fit_min),
+                                 "lowest temperature of the data behind the parameters; below it results are "
+                                 "flagged as extrapolated")
+            .above(0)
+            .defaults("temperature_min"),
+        quantity<CustomCellSpec>("temperature_fit_max", "K", 0, 2000, ELY_MEMBER(envelope.temperature_fit_max),
+                                 "highest temperature of the data behind the parameters")
+            .above(0)
+            .defaults("temperature_max"),
+        quantity<CustomCellSpec>("pressure_min", "Pa", 0, 1e9, ELY_MEMBER(envelope.pressure_min),
+                                 "lowest absolute pressure of each electrode")
+            .above(0),
+        quantity<CustomCellSpec>("pressure_max", "Pa", 0, 1e9, ELY_MEMBER(envelope.pressure_max),
+                                 "highest absolute pressure of each electrode")
+            .above(0),
+        quantity<CustomCellSpec>("current_density_max", "A/m2", 0, 1e6, ELY_MEMBER(envelope.current_density_max),
+                                 "highest current density the model accepts")
+            .above(0),
+        quantity<CustomCellSpec>("thermoneutral_voltage", "V", 0, 10, ELY_MEMBER(thermoneutral_voltage),
+                                 "thermoneutral voltage to report")
+            .defaults("the liquid-water (HHV) value when the main products are H2 and O2, else unknown (0 "
+                      "reported)"),
+    };
+    return fields;
+}
+
+#undef ELY_MEMBER
+
+}  // namespace ely::config_keys
