@@ -119,7 +119,7 @@ void Block::fill_outputs(const PointResult& r) {
     if (water_c + vap_a > 0) h_out += (water_c + vap_a) * ideal_gas(Species::water_vapour, t).enthalpy;
     if (liquid_out > 0) h_out += liquid_out * liquid_water(t, std::max(r.p_cathode, water_saturation_pressure(t))).enthalpy;
     if (naoh > 0) h_out += naoh * aqueous_solute(Solute::sodium_hydroxide, t).enthalpy;
-    const double q_loss = v_[par_heat_loss_coefficient] * design_.stacks() * (t - v_[par_ambient_temperature]);
+    const double q_loss = heat_loss_at(t);
     v_[heat_loss] = q_loss;
     if (design_.technology->has(kHeatFromThermoneutralVoltage)) {
         // Products without enthalpy data here (metals, ...): the duty is the electrical work
