@@ -28,16 +28,9 @@ json::array rows(const std::vector<double>& values, std::size_t points, std::siz
 }  // namespace
 
 std::string fit_report_json(const FitResult& r) {
+    // Members in the order people read them: what was fitted, how well, what to beware of,
+    // how the iteration went, the rows, and the calibrated plant last.
     json::object report;
-    report["termination"] = r.termination;
-    report["iterations"] = r.iterations;
-    report["evaluations"] = r.evaluations;
-    report["points"] = r.points;
-    report["measurements"] = r.measurements;
-    report["degrees_of_freedom"] = r.degrees_of_freedom;
-    report["sum_of_squares"] = r.sum_of_squares;
-    report["residual_variance"] = r.residual_variance;
-    report["condition_number"] = r.condition_number;
     json::array parameters;
     for (const FittedParameter& p : r.parameters) {
         json::object o;
@@ -57,6 +50,7 @@ std::string fit_report_json(const FitResult& r) {
     json::array correlation;
     for (const auto& row : r.correlation) correlation.emplace_back(numbers(row.data(), row.size()));
     report["correlation"] = std::move(correlation);
+    report["condition_number"] = r.condition_number;
     json::array measured;
     for (const auto& name : r.measured_names) measured.emplace_back(json::string(name));
     report["measured"] = std::move(measured);
@@ -65,12 +59,20 @@ std::string fit_report_json(const FitResult& r) {
     report["rmse"] = std::move(rmse);
     for (std::size_t o = 0; o < r.measured_names.size(); ++o)
         if (r.measured_names[o] == "cell.voltage") report["rmse_V"] = r.rmse[o];
-    const std::size_t columns = r.measured_names.size();
-    report["residuals"] = rows(r.residuals, r.points, columns);
-    report["fitted"] = rows(r.fitted, r.points, columns);
     json::array warnings;
     for (const auto& w : r.warnings) warnings.emplace_back(json::string(w));
     report["warnings"] = std::move(warnings);
+    report["termination"] = r.termination;
+    report["iterations"] = r.iterations;
+    report["evaluations"] = r.evaluations;
+    report["points"] = r.points;
+    report["measurements"] = r.measurements;
+    report["degrees_of_freedom"] = r.degrees_of_freedom;
+    report["sum_of_squares"] = r.sum_of_squares;
+    report["residual_variance"] = r.residual_variance;
+    const std::size_t columns = r.measured_names.size();
+    report["residuals"] = rows(r.residuals, r.points, columns);
+    report["fitted"] = rows(r.fitted, r.points, columns);
     report["plant"] = r.plant_json.empty() ? json::value(nullptr) : json_input::parse_json(r.plant_json, {});
     return calibration::indented_json(report);
 }

@@ -63,6 +63,25 @@ assert 0.0003 < r["rmse_V"] < 0.001, r["rmse_V"]          # the 0.7 mV scatter
 assert len(r["residuals"]) == 12 and r["measured"] == ["cell.voltage"]
 assert r["plant"]["cell"]["contact_resistance"].endswith(" ohm m2")
 PY
+    # A weight column (row 3 weighed out) and a row without a measured voltage (row 5).
+    $py - "$tmp/data.csv" "$tmp/weighted.csv" <<'PY'
+import sys
+lines = [l.rstrip("\n") for l in open(sys.argv[1]) if not l.startswith("#")]
+out = [lines[0] + ", weight:cell.voltage"]
+for i, l in enumerate(lines[1:]):
+    cells = [c.strip() for c in l.split(",")]
+    if i == 4: cells[2] = ""
+    out.append(", ".join(cells) + (", 0" if i == 2 else ", "))
+open(sys.argv[2], "w").write("\n".join(out) + "\n")
+PY
+    "$bin" fit "$tmp/plant.json" "$tmp/weighted.csv" --free contact_resistance --format json >"$tmp/w.json" \
+      || fail "weighted fit exited $?"
+    $py - "$tmp/w.json" <<'PY' || fail "weights or missing values not applied"
+import json, sys
+r = json.load(open(sys.argv[1]))
+assert r["points"] == 12 and r["measurements"] == 10, (r["points"], r["measurements"])
+assert r["residuals"][4] == [None] and r["fitted"][4][0] > 1.5
+PY
     ;;
   published)
     # One published operating point (tests/data: DOE 2022 status of liquid alkaline stacks,
