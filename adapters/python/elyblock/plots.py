@@ -18,12 +18,13 @@ with its residuals (from ``Block.fit``'s result); they take those results, not a
 import argparse
 import os
 import sys
+import warnings
 
 import numpy as np
 from matplotlib.figure import Figure
 
 from .block import Block
-from .errors import ElyError
+from .errors import ElyError, ElyWarning
 
 #: The parts of the cell voltage, bottom to top of the stacked areas: (label, how to get it from a
 #: batch result). Their sum is cell.voltage (the library's voltage is defined as that sum).
@@ -65,7 +66,9 @@ def _sweep(block, current_density, points, inputs, outputs):
     j = np.asarray(current_density, dtype=np.float64).ravel()
     columns = {"in.current_density": j}
     columns.update(inputs or {})
-    result = block.batch(columns, outputs, spec="current_density", with_status=True, progress=False)
+    with warnings.catch_warnings():  # points that fail (below a cell's smallest current) are left out, as documented
+        warnings.simplefilter("ignore", ElyWarning)
+        result = block.batch(columns, outputs, spec="current_density", with_status=True, progress=False)
     solved = np.ravel(result["status"]) >= 0
     kept = {name: np.ravel(values)[solved] for name, values in result.items()}
     kept["in.current_density"] = np.broadcast_to(j, solved.shape)[solved]
