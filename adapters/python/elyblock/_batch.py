@@ -1,6 +1,7 @@
 """Batch tables: from the caller's inputs (a mapping of arrays, or a DataFrame) to the
 row-major matrix the C batch reads, and from the C output matrix back to the caller's types.
 Shared by Block.batch and elyblock.distributed, so both take and give exactly the same."""
+import math
 import sys
 from collections.abc import Mapping
 
@@ -37,17 +38,19 @@ class Table:
             shape, index = (len(inputs),), inputs.index
         elif isinstance(inputs, Mapping):
             names = [str(k) for k in inputs]
-            try:
-                columns = np.broadcast_arrays(*[np.asarray(v, dtype=np.float64) for v in inputs.values()])
-            except ValueError as e:
-                raise errors.InvalidArgumentError(f"batch inputs: the arrays do not broadcast to one shape ({e})") from e
+            columns = [np.asarray(v, dtype=np.float64) for v in inputs.values()]
+            if any(c.shape != columns[0].shape for c in columns):
+                try:
+                    columns = np.broadcast_arrays(*columns)
+                except ValueError as e:
+                    raise errors.InvalidArgumentError(f"batch inputs: the arrays do not broadcast to one shape ({e})") from e
             shape, index = (columns[0].shape if columns else ()), None
         else:
             raise TypeError("batch inputs must be a mapping of variable names to arrays, or a pandas DataFrame, "
                             f"not {type(inputs).__name__}")
         if not names:
             raise errors.InvalidArgumentError("batch inputs: no input variable given")
-        points = int(np.prod(shape, dtype=np.int64))
+        points = math.prod(shape)
         matrix = np.empty((points, len(names)), dtype=np.float64)
         for i, column in enumerate(columns):
             matrix[:, i] = np.ravel(column)

@@ -10,11 +10,13 @@ ELY_ERR_CANCELLED. ``Monitor`` builds that callback from the caller's wish:
 - ``progress=callable``: ``callable(done, total)`` is called instead of a bar; a true return
   value cancels the call (the caller then gets ``CancelledError`` with the partial result).
 
-Ctrl-C: while the call runs on the main thread with Python's default SIGINT handler, the
-handler is replaced by one that only records the interrupt; the next progress call returns
-non-zero, the library stops, and KeyboardInterrupt is raised once the call has returned (so
-the library is never left in the middle of anything). An exception raised by a callable
-cancels the call the same way and is re-raised afterwards.
+Ctrl-C: while a call of CATCH_INTERRUPT_POINTS or more runs on the main thread with Python's
+default SIGINT handler, the handler is replaced by one that only records the interrupt; the
+next progress call returns non-zero, the library stops, and KeyboardInterrupt is raised once
+the call has returned (so the library is never left in the middle of anything). A smaller call
+ends within milliseconds and the interrupt is raised as usual (or, arriving inside a progress
+call, cancels like an exception of a callable). An exception raised by a callable cancels the
+call the same way and is re-raised afterwards.
 """
 import signal
 import sys
@@ -24,6 +26,10 @@ from . import _capi
 
 #: A bar in the default mode appears only for calls that last longer than this, in seconds.
 AUTO_BAR_DELAY = 0.5
+#: Points from which a call catches Ctrl-C itself (a smaller call ends within milliseconds, after
+#: which the interrupt is raised as usual); the library reports progress every 1024 points.
+CATCH_INTERRUPT_POINTS = 100_000
+NO_CALLBACK = _capi.PROGRESS()  # a NULL ely_progress_fn
 
 
 def _bar(total, description, delay):
@@ -57,8 +63,9 @@ class Monitor:
         self.cancelled_by_user = False
         self.error = None
         self._previous_handler = None
-        self._catch_interrupt = catch_interrupt
-        self.callback = _capi.PROGRESS(self._on_progress)
+        self._catch_interrupt = catch_interrupt and total >= CATCH_INTERRUPT_POINTS
+        needed = self.want_bar or self.user_function is not None or self._catch_interrupt
+        self.callback = _capi.PROGRESS(self._on_progress) if needed else NO_CALLBACK
 
     def __enter__(self):
         if self.want_bar:

@@ -425,8 +425,5 @@ def _call_batch(work, in_idx, matrix, out_idx, values, status, callback=None):
     """ely_block_solve_batch over the rows of ``matrix``: (call status, the library's message)."""
     call_status = lib.ely_block_solve_batch(
         work._live(), len(matrix), len(in_idx), in_idx.ctypes.data, matrix.ctypes.data, len(out_idx),
-        out_idx.ctypes.data, values.ctypes.data, status.ctypes.data, callback or _NO_PROGRESS, None)
+        out_idx.ctypes.data, values.ctypes.data, status.ctypes.data, callback or _progress.NO_CALLBACK, None)
     return call_status, _capi.last_error()
-
-
-_NO_PROGRESS = _capi.PROGRESS()  # a NULL ely_progress_fn
