@@ -49,8 +49,9 @@ def power_profile(rated_power, seed=2024):
     return rated_power * np.clip(0.7 * wind + 0.45 * sun, 0.0, 0.95)
 
 
-def draw_plants(base, samples, seed=7):
-    """Plant descriptions with the uncertain parameters drawn (spreads invented for the demo)."""
+def draw_plants(base, samples, power, seed=7):
+    """Plant descriptions with the uncertain parameters drawn (spreads invented for the demo),
+    at the power spec with ``power`` (W) as their initial power."""
     rng = np.random.default_rng(seed)
     exchange = 1e-3 * np.exp(rng.normal(0.0, np.log(2.0), samples))   # A/m2, median 1e-3, factor 2 at 1 sigma
     transfer = rng.normal(1.5, 0.08, samples)                          # anode transfer coefficient
@@ -60,7 +61,7 @@ def draw_plants(base, samples, seed=7):
         cell = dict(base.get("cell", {}), anode_exchange_current_density=float(j0),
                     anode_transfer_coefficient_forward=float(alpha), anode_transfer_coefficient_backward=float(alpha))
         plant = dict(base, cell=cell, plant=dict(base["plant"], degradation={"voltage_rate": float(rate)}))
-        plant["operating"] = dict(base["operating"], spec="power")
+        plant["operating"] = dict(base["operating"], spec="power", power=float(power))
         plants.append(plant)
     parameters = pd.DataFrame({"anode_exchange_current_density": exchange, "anode_transfer_coefficient": transfer,
                                "voltage_rate_uV_per_h": degradation * 1e6})
@@ -120,7 +121,7 @@ def main(argv=None):
 
     base = json.loads(args.plant.read_text())
     inputs, rated, running = year_inputs(base)
-    plants, parameters = draw_plants(base, args.samples)
+    plants, parameters = draw_plants(base, args.samples, np.median(inputs["in.power"]))
     print(f"elyblock {elyblock.__version__}: {args.samples} samples of a year, {running} running hours of "
           f"{HOURS}, rated DC power {rated / 1e6:.1f} MW")
 

@@ -262,7 +262,7 @@ def test_points_after_a_failure_keep_the_blocks_inputs_and_spec(reference):
     statuses, values = single_solves(reference, DEMO_PLANT, {"in.temperature": 352.0}, "power",
                                      [{"in.power": p} for p in power], ["cell.voltage", "in.temperature", "stack.power"])
     np.testing.assert_array_equal(result["status"], statuses)
-    assert list(statuses) == [errors.Status.INFEASIBLE, 0, 0, errors.Status.INFEASIBLE, 0]
+    assert list(statuses[[0, 3]]) == [errors.Status.INFEASIBLE] * 2 and (statuses[[1, 2, 4]] >= 0).all()
     for o, name in enumerate(["cell.voltage", "in.temperature", "stack.power"]):
         assert_same(result[name], values[:, o])
     # the same through the spec argument, from a freshly created block

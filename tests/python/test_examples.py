@@ -64,7 +64,7 @@ def test_monte_carlo_locally_and_on_two_workers(tmp_path, reference):
     example = load("monte_carlo")
     base = json.loads(DEMO_PLANT.read_text())
     inputs, _, running = example.year_inputs(base)
-    plants, parameters = example.draw_plants(base, 6)
+    plants, parameters = example.draw_plants(base, 6, np.median(inputs["in.power"]))
     assert_same(parameters["anode_exchange_current_density"], a["anode_exchange_current_density"])
     reference.create(plants[2], tmp_path)
     _, status, values = reference.batch(inputs, example.OUTPUTS)

@@ -18,10 +18,10 @@ print(json.dumps({{"library": elyblock.library_path, "version": elyblock.__versi
 
 
 def install(prefix):
+    """The README's install command: everything, into a prefix."""
     cmake = os.environ.get("CMAKE_COMMAND", "cmake")
-    for component in ("runtime", "python"):
-        subprocess.run([cmake, "--install", str(BUILD_DIR), "--prefix", str(prefix), "--component", component],
-                       check=True, capture_output=True, text=True)
+    subprocess.run([cmake, "--install", str(BUILD_DIR), "--prefix", str(prefix)], check=True, capture_output=True,
+                   text=True)
 
 
 def run_installed(site, cwd):
