@@ -211,9 +211,13 @@ class Block:
         no ``in.x`` but such a parameter)."""
         if "." in key:
             return key, self._index(key)
+        found = self._indices.get(("keyword", key))
+        if found is not None:
+            return found
         for prefix in ("in.", "param."):
             try:
-                return prefix + key, self._index(prefix + key)
+                found = self._indices[("keyword", key)] = prefix + key, self._index(prefix + key)
+                return found
             except errors.UnknownNameError:
                 pass
         raise errors.UnknownNameError(f"unknown input '{key}': this block has no variable 'in.{key}' "
