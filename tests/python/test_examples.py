@@ -1,13 +1,14 @@
 """The example scripts of examples/python run, and what they write equals the C interface."""
 import importlib.util
 import json
+import os
+import pathlib
 import subprocess
 import sys
 
 import numpy as np
 import pandas as pd
-import pytest
-
+import elyblock
 from conftest import DEMO_PLANT, SOURCE_DIR, assert_same
 
 EXAMPLES = SOURCE_DIR / "examples" / "python"
@@ -21,8 +22,11 @@ def load(name):
 
 
 def run(script, *args, cwd):
-    done = subprocess.run([sys.executable, str(EXAMPLES / script), *map(str, args)], cwd=cwd, capture_output=True,
-                          text=True, timeout=600)
+    # the scripts run elsewhere: give them the package this test imports by an absolute path
+    package_dir = pathlib.Path(elyblock.__file__).resolve().parents[1]
+    env = dict(os.environ, PYTHONPATH=os.pathsep.join([str(package_dir), os.environ.get("PYTHONPATH", "")]))
+    done = subprocess.run([sys.executable, str(EXAMPLES / script), *map(str, args)], cwd=cwd, env=env,
+                          capture_output=True, text=True, timeout=600)
     assert done.returncode == 0, done.stderr
     return done.stdout
 
