@@ -503,6 +503,10 @@ TEST_P(UnitAlarms, EachAlarmIsRaisedAndNamed) {
     EXPECT_EQ(p.get(c.alarm), 1.0);
     EXPECT_EQ(p.get("alarm.any"), 1.0);
     EXPECT_THAT(outcome.message, HasSubstr(p.block.variable(p.block.find(c.alarm)).label));
+    // "solved with alarms: a; b": labels separated by "; ", nothing after the last one.
+    EXPECT_THAT(outcome.message, ::testing::StartsWith("solved with alarms: "));
+    EXPECT_NE(outcome.message.back(), ';') << outcome.message;
+    EXPECT_EQ(outcome.message.find(";;"), std::string::npos) << outcome.message;
     for (int a = alarm_first; a <= alarm_last; ++a) {
         const char* other = variable_info(Var(a)).name;
         const bool implied = std::string(c.alarm) == "alarm.h2_in_o2_trip" && std::string(other) == "alarm.h2_in_o2_warning";

@@ -1,0 +1,10 @@
+#pragma once
+// The subcommands of `elyblock`, in the order its help lists them. Adding one: its file
+// cmd_<name>.cpp defining `elycli::Command elycli::command_<name>()` (command.hpp), and one
+// line `X(<name>) \` here.
+#define ELYBLOCK_COMMANDS(X) \
+    X(solve)                 \
+    X(sweep)                 \
+    X(variables)             \
+    X(water)                 \
+    X(version)
