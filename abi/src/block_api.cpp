@@ -9,6 +9,7 @@
 #include "base/excerpt.hpp"
 #include "config/config.hpp"
 #include "elyblock/elyblock.h"
+#include "block_handle.hpp"
 #include "guard.hpp"
 #include "handle.hpp"
 #include "unit/block.hpp"
@@ -213,7 +214,8 @@ ELY_API int32_t ely_block_report_json(const ely_block* block, char* buffer, size
     return guard([&] {
         require_pointer(block, "block");
         require_pointer(length, "length");
-        return ely::capi::copy_out(block->model.report_json(), true, buffer, capacity, length);
+        ely::capi::copy_text(block->model.report_json(), buffer, capacity, length);
+        return ELY_OK;
     });
 }
 

@@ -8,6 +8,7 @@
 
 #include "elyblock/elyblock.h"
 #include "elyblock_version.h"
+#include "block_handle.hpp"
 #include "guard.hpp"
 #include "handle.hpp"
 
@@ -55,7 +56,8 @@ ELY_API int32_t ely_block_save_state(const ely_block* block, void* buffer, size_
     return guard([&] {
         require_pointer(block, "block");
         require_pointer(length, "length");
-        return ely::capi::copy_out(block->model.save_state(kProducer), false, buffer, capacity, length);
+        ely::capi::copy_bytes(block->model.save_state(kProducer), buffer, capacity, length);
+        return ELY_OK;
     });
 }
 
@@ -72,7 +74,8 @@ ELY_API int32_t ely_block_run_summary_json(const ely_block* block, char* buffer,
     return guard([&] {
         require_pointer(block, "block");
         require_pointer(length, "length");
-        return ely::capi::copy_out(block->model.run_summary_json(), true, buffer, capacity, length);
+        ely::capi::copy_text(block->model.run_summary_json(), buffer, capacity, length);
+        return ELY_OK;
     });
 }
 

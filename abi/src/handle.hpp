@@ -1,20 +1,16 @@
 #pragma once
-// What the files of the C interface share about the block handle: the handle itself, the status of
-// a solve or step, and the caller's buffers.
+// What the block calls of the C interface share beyond the handle (block_handle.hpp): the status of
+// a solve or step, and the checks of a table of rows (a batch, a profile).
 #include <algorithm>
 #include <cstdint>
 #include <cstring>
 #include <limits>
 #include <string>
 
+#include "block_handle.hpp"
 #include "elyblock/elyblock.h"
 #include "guard.hpp"
 #include "unit/block.hpp"
-
-struct ely_block {
-    explicit ely_block(ely::Block b) : model(std::move(b)) {}
-    ely::Block model;
-};
 
 namespace ely::capi {
 
@@ -57,28 +53,6 @@ inline void check_table(const ely::Block& model, size_t n_rows, const char* rows
                                                          info.name + "', which is not an input");
     }
     for (int32_t o = 0; o < n_outputs; ++o) model.variable(output_indices[o]);
-}
-
-/// The buffer protocol of ely_block_report_json: *length receives the size needed (with the NUL
-/// terminator when `text`); a NULL buffer with capacity 0 asks for the size only; a smaller
-/// non-zero capacity is ELY_ERR_BUFFER_TOO_SMALL and writes nothing into the buffer.
-inline int32_t copy_out(const std::string& data, bool text, void* buffer, size_t capacity, size_t* length) {
-    require_pointer(length, "length");
-    const size_t needed = data.size() + (text ? 1 : 0);
-    if (buffer == nullptr || capacity == 0) {
-        if (buffer == nullptr && capacity != 0) throw Error(ErrorKind::invalid_argument, "buffer is NULL but capacity is not 0");
-        *length = needed;
-        return ELY_OK;
-    }
-    if (capacity < needed) {
-        *length = needed;
-        throw Error(ErrorKind::buffer_too_small,
-                    "buffer of " + std::to_string(capacity) + " bytes is too small; " + std::to_string(needed) + " needed");
-    }
-    std::memcpy(buffer, data.data(), data.size());
-    if (text) static_cast<char*>(buffer)[data.size()] = '\0';
-    *length = needed;
-    return ELY_OK;
 }
 
 }  // namespace ely::capi

@@ -65,17 +65,26 @@ void check_range(double x, double lo, double hi, bool lo_open, const char* unit,
     if (x > hi) fail(path, fmt::format("{} is above the upper limit {}", quantity_text(x, unit), quantity_text(hi, unit)));
 }
 
+/// A count: an integral JSON number, or a string holding one ("100"), as a quantity may be a
+/// string holding a plain number; a count takes no unit.
 int count_value(const json::value& v, double lo, double hi, const std::string& path) {
     double x = 0;
     switch (v.kind()) {
         case json::kind::int64: x = static_cast<double>(v.get_int64()); break;
         case json::kind::uint64: x = static_cast<double>(v.get_uint64()); break;
-        case json::kind::double_:
-            x = v.get_double();
-            if (!std::isfinite(x) || x != std::floor(x)) fail(path, "expected an integer, got " + got(v));
+        case json::kind::double_: x = v.get_double(); break;
+        case json::kind::string: {
+            const auto& s = v.get_string();
+            try {
+                x = parse_plain_number(std::string_view(s.data(), s.size()));
+            } catch (const Error&) {
+                fail(path, "expected an integer (a count is a plain number and takes no unit), got " + got(v));
+            }
             break;
+        }
         default: fail(path, "expected an integer, got " + got(v));
     }
+    if (!std::isfinite(x) || x != std::floor(x)) fail(path, "expected an integer, got " + got(v));
     check_range(x, lo, hi, false, nullptr, path);
     return static_cast<int>(x);
 }
@@ -373,6 +382,7 @@ PlantDesign parse_config(std::string_view json_text) {
     }
     if (!d.cell) throw Error(ErrorKind::internal, "$.cell: the cell model factory returned no cell");
     settle_operating_point(root, d);
+    d.source_json = std::make_shared<const std::string>(json_text);
     return d;
 }
 
