@@ -145,7 +145,10 @@ double Block::target_current_density(const RunSegment& seg, double temperature, 
         evaluate_point(temperature, hours, x, pr);
         return drive_quantity(pr);
     };
-    double j = std::clamp(std::isfinite(seg.guess_current) ? seg.guess_current : 0.5 * (lo + hi), lo, hi);
+    double j = std::isfinite(seg.guess_current)
+                   ? seg.guess_current + seg.guess_per_kelvin * (temperature - seg.temperature0)
+                   : 0.5 * (lo + hi);
+    j = std::clamp(j, lo, hi);
     double slope = seg.guess_slope;
     if (!(slope > 0)) {  // no slope known: a difference quotient
         const double dj = 1e-6 * seg.j_rated;
@@ -403,12 +406,20 @@ void Block::open_segment(double t) {
     if (s.follows_temperature) {
         s.guess_current = run_.segment.follows_temperature ? run_.segment.guess_current : run_.current_density;
         s.guess_slope = run_.segment.follows_temperature ? run_.segment.guess_slope : kNaN;
+        s.guess_per_kelvin = 0.0;
         PointResult pr;
         double slope = kNaN;
         target = target_current_density(s, temperature, run_.hours, pr, 1e-13 * s.j_rated, &slope);
         s.guess_current = target;
         s.guess_slope = slope;
         at_minimum = target <= s.j_lo;
+        // How the target moves with the temperature, from a second solve 0.1 K away (within the
+        // window only: at its ends the target does not move).
+        if (target > s.j_lo && target < s.j_hi) {
+            const double dT = temperature + 0.1 <= cell_->envelope().temperature_max ? 0.1 : -0.1;
+            const double moved = target_current_density(s, temperature + dT, run_.hours, pr, 1e-13 * s.j_rated, nullptr);
+            s.guess_per_kelvin = (moved - target) / dT;
+        }
     }
     // Switched on at the floor; at the target (within a billionth of the rated current) it follows it.
     if (run_.current_density < s.j_floor && target > run_.current_density)
@@ -432,6 +443,7 @@ void Block::open_segment(double t) {
     run_.alarm[kLoadLow] = at_minimum;
     run_.segment = s;
     run_.open = 1;
+    run_.pending_event = ev_none;
     // The integrator's first point, with its slope.
     RunStep& step = run_.step;
     step.t_a = step.t_b = t;
@@ -584,6 +596,12 @@ int Block::extend_segment(double t_want, double& t_event) {
     const RunSegment& seg = run_.segment;
     RunStep& step = run_.step;
     t_event = t_want;
+    if (run_.pending_event != ev_none && t_want >= run_.pending_time) {  // found by an earlier call
+        const int event = run_.pending_event;
+        t_event = run_.pending_time;
+        run_.pending_event = ev_none;
+        return event;
+    }
     if (!(t_want > step.t_b)) return ev_none;
     RunWorkspace& w = workspace_.get();
     const double t_limit = std::min(seg.t_ramp_end, seg.t_mode_end);
@@ -730,6 +748,20 @@ int Block::extend_segment(double t_want, double& t_event) {
                 t_event = b;
                 event = k;
             }
+        }
+        if (t_event > t_want) {
+            // The event lies beyond the time asked for: the step is cut at it and the event kept
+            // for the call that reaches it.
+            std::array<double, kRunComponents> x_event{};
+            hermite_interpolate(step, t_event, x_event.data(), kRunComponents);
+            step.t_b = t_event;
+            step.x_b = x_event;
+            rates_at(seg, t_event, step.x_b.data(), r, false);
+            derivative_of(seg, r, step.x_b.data(), step.f_b.data());
+            run_.pending_event = event;
+            run_.pending_time = t_event;
+            event = ev_none;
+            t_event = t_want;
         }
         break;
     }

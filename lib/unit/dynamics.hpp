@@ -97,7 +97,9 @@ struct RunSegment {
     int32_t coolant_on = 0, valve_controlled = 0;
     double t_ramp_end = 0, t_mode_end = 0;   // time events (+inf: none)
     double separator_moles = 1;
-    double guess_current = 0, guess_slope = 0;  // where the current that meets the setpoint starts its search
+    // Where the search for the current that meets the setpoint starts: its value at temperature0,
+    // its change with the temperature there, and the slope of the spec's quantity with the current.
+    double guess_current = 0, guess_per_kelvin = 0, guess_slope = 0;
     std::array<double, kRunComponents> scale{};  // integration units: x = y / scale
 };
 
@@ -151,6 +153,8 @@ struct RunState {
     int32_t at_minimum_load = 0;
     int32_t request = static_cast<int32_t>(ModeRequest::production);  // in force over the current step
     int32_t open = 0;  // a segment is open: the next step continues its integration (inputs unchanged)
+    int32_t pending_event = -1;  // an event found beyond the time a step asked for, at pending_time
+    double pending_time = 0;
     RunSegment segment;
     RunStep step;
     IntegratorHistory integrator;

@@ -133,10 +133,12 @@ void visit(RunState& s, F&& f) {
     f(s.at_minimum_load);
     f(s.request);
     f(s.open);
+    f(s.pending_event);
+    f(s.pending_time);
     RunSegment& g = s.segment;
     for (double* x : {&g.t0, &g.j0, &g.hours0, &g.temperature0, &g.ramp_speed, &g.target, &g.setpoint, &g.quantity_scale,
                       &g.j_lo, &g.j_hi, &g.j_rated, &g.j_floor, &g.heater_target, &g.t_ramp_end, &g.t_mode_end,
-                      &g.separator_moles, &g.guess_current, &g.guess_slope})
+                      &g.separator_moles, &g.guess_current, &g.guess_per_kelvin, &g.guess_slope})
         f(*x);
     for (int32_t* x : {&g.mode, &g.ramp, &g.follows_temperature, &g.below_minimum, &g.current_flows, &g.auxiliaries_on,
                        &g.heater_on, &g.coolant_on, &g.valve_controlled})

@@ -255,7 +255,7 @@ constexpr Entry kTable[] = {
         .configured_by("$.plant.startup.temperature")},
     {par_dynamics_tolerance, tunable("param.dynamics.tolerance", "1",
         "error tolerance of the time integration, relative (and absolute on states scaled to order one)")
-        .within(1e-12, 1e-3).starts(1e-8).scaled(1e-8).labelled("integration tolerance")
+        .within(1e-12, 1e-3).starts(1e-6).scaled(1e-6).labelled("integration tolerance")
         .configured_by("$.plant.dynamics.tolerance")},
 
     {cell_voltage, output("cell.voltage", "V", "cell voltage: reversible + activation (anode, cathode) + ohmic + concentration")
