@@ -352,8 +352,9 @@ ELY_API int32_t ely_block_restore_state(ely_block* block, const void* buffer, si
  * inputs applied) and row_status[k] the row's status. The block is left running at the last row,
  * and ely_block_run_summary_json reports the profile. Returns ELY_OK, ELY_WARNING (some row
  * warned), ELY_PARTIAL (the run stopped at a row that failed: that row and those after it get its
- * status and NaN outputs; the block is left at the row before), the failing row's status when it is
- * the first, ELY_ERR_CANCELLED (the progress callback asked to stop, even at its last call; rows not
+ * status and NaN outputs; the block is left running where it stopped, at the last time it reached
+ * with the inputs in force there, its outputs valid), the failing row's status when it is the
+ * first, ELY_ERR_CANCELLED (the progress callback asked to stop, even at its last call; rows not
  * run get ELY_ERR_CANCELLED), or an error for bad arguments (nothing written, the block unchanged).
  * Arguments are checked as for ely_block_solve_batch, and the times before anything runs.
  * progress is called every 1024 rows and after the last; it may be NULL. */
