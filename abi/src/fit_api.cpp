@@ -1,6 +1,5 @@
-// The calibration calls of the C interface (ely_block_fit, the ely_fit result) and unit
-// conversion: thin wrappers over lib/calibration and lib/config/units, each inside guard().
-#include <cmath>
+// The calibration calls of the C interface (ely_block_fit, the ely_fit result): thin wrappers
+// over lib/calibration, each inside guard(). Unit conversion is in units_api.cpp.
 #include <cstring>
 #include <limits>
 #include <memory>
@@ -8,7 +7,6 @@
 
 #include "block_handle.hpp"
 #include "calibration/fit.hpp"
-#include "config/units.hpp"
 #include "elyblock/elyblock.h"
 #include "guard.hpp"
 
@@ -148,32 +146,5 @@ ELY_API int32_t ely_fit_parameter(const ely_fit* fit, int32_t k, double* value, 
 }
 
 ELY_API void ely_fit_destroy(ely_fit* fit) { delete fit; }
-
-ELY_API int32_t ely_convert_unit(double value, const char* from_unit, const char* to_unit, double* result) {
-    return guard([&] {
-        require_pointer(from_unit, "from_unit");
-        require_pointer(to_unit, "to_unit");
-        require_pointer(result, "result");
-        if (!std::isfinite(value)) throw Error(ErrorKind::invalid_argument, "value " + std::to_string(value) + " is not a finite number");
-        try {
-            const ely::Unit to = ely::parse_unit(to_unit);
-            double x;
-            if (to.offset == 0) {
-                x = ely::convert_unit(value, from_unit, to_unit);
-            } else {
-                // A target with an offset (degC): through kelvin.
-                const double kelvin = ely::convert_unit(value, from_unit, "K");
-                x = (kelvin - to.offset) / to.factor();
-            }
-            if (!std::isfinite(x)) throw Error(ErrorKind::invalid_argument, "the converted value is not a finite number");
-            *result = x;
-        } catch (const Error& e) {
-            // Unit errors are config errors inside the model; here the unit is an argument.
-            if (e.kind() == ErrorKind::config) throw Error(ErrorKind::invalid_argument, e.what());
-            throw;
-        }
-        return ELY_OK;
-    });
-}
 
 }  // extern "C"
