@@ -309,11 +309,37 @@ class Block:
         """The solved state as the library's JSON report, parsed: technology, spec, name and every
         variable with its value and unit."""
         with self._lock:
-            length = ctypes.c_size_t()
-            _capi.check(lib.ely_block_report_json(self._live(), None, 0, ctypes.byref(length)))
-            buffer = ctypes.create_string_buffer(length.value)
-            _capi.check(lib.ely_block_report_json(self._live(), buffer, length.value, ctypes.byref(length)))
-        return json.loads(buffer.value.decode("utf-8"), parse_constant=lambda c: math.nan)
+            text = _capi.buffer_text(lib.ely_block_report_json, self._live())
+        return json.loads(text, parse_constant=lambda c: math.nan)
+
+    # -- fit --
+    def fit(self, data, free, *, weights=None, bounds=None, scales=None, max_iterations=None, tolerance=None,
+            progress=None):
+        """Fits the tunable parameters ``free`` to measured ``data`` (``ely_block_fit``): weighted
+        least squares (Levenberg-Marquardt) within bounds, at the block's spec, starting from the
+        block's current values; afterwards the block holds the fitted values (its inputs and spec
+        unchanged; solve before reading outputs). Returns an ``elyblock.fit.FitResult``.
+
+        ``data``: a DataFrame, or a mapping of names to equally long arrays: input columns
+        (``in.current_density`` or ``current_density``, ``in.temperature``, ...), measured outputs
+        (``cell.voltage``; NaN where not measured) and optional ``weight:<output>`` columns; a
+        name may carry its unit in brackets (``"cell.voltage [mV]"``, ``"in.temperature [degC]"``),
+        else values are SI. ``free``: parameter names, keys of the cell object
+        (``"anode_exchange_current_density"``) or variable names (``"param.cell.contact_resistance"``).
+        ``weights``: {output: weights per point, or one number} (1/sigma² in SI; only ratios
+        matter). ``bounds``: {parameter: (low, high)}, each a number (SI), a quantity text
+        (``"0.05 ohm cm2"``) or None for the variable's own limit. ``scales``: {parameter: "auto",
+        "linear" or "log"}. ``max_iterations`` (default 200), ``tolerance`` (default 1e-10).
+        ``progress``: as ``batch`` (a bar counts iterations; Ctrl-C or a callable returning true
+        cancels: ``CancelledError``, the block unchanged).
+
+        A fit that succeeds with warnings (parameters the data cannot separate, a value at a
+        bound) issues an ``ElyWarning``; the result lists them in ``warnings``. Errors (a row that
+        does not solve at the start values, a parameter the data do not depend on, ...) raise with
+        the library's message and leave the block unchanged."""
+        from .fit import fit
+        return fit(self, data, free, weights=weights, bounds=bounds, scales=scales, max_iterations=max_iterations,
+                   tolerance=tolerance, progress=progress)
 
     # -- batch --
     def batch(self, inputs, outputs, *, spec=None, with_status=False, progress=None):
