@@ -1,5 +1,6 @@
 // The calibration calls of the C interface (ely_block_fit, the ely_fit result): thin wrappers
 // over lib/calibration, each inside guard(). Unit conversion is in units_api.cpp.
+#include <cmath>
 #include <cstring>
 #include <limits>
 #include <memory>
@@ -141,6 +142,26 @@ ELY_API int32_t ely_fit_parameter(const ely_fit* fit, int32_t k, double* value, 
                         "parameter " + std::to_string(k) + " is outside 0.." + std::to_string(params.size() - 1));
         if (value) *value = params[static_cast<size_t>(k)].value;
         if (standard_error) *standard_error = params[static_cast<size_t>(k)].standard_error;
+        return ELY_OK;
+    });
+}
+
+ELY_API int32_t ely_fit_rmse(const ely_fit* fit, int32_t o, double* rmse, size_t* rows) {
+    return guard([&] {
+        require_pointer(fit, "fit");
+        if (rmse == nullptr && rows == nullptr) throw Error(ErrorKind::invalid_argument, "rmse and rows are both NULL");
+        const auto& r = fit->result;
+        const size_t n = r.measured_names.size();
+        if (o < 0 || static_cast<size_t>(o) >= n)
+            throw Error(ErrorKind::invalid_argument,
+                        "measured variable " + std::to_string(o) + " is outside 0.." + std::to_string(n - 1));
+        const auto at = static_cast<size_t>(o);
+        if (rmse) *rmse = r.rmse[at];
+        if (rows) {
+            size_t count = 0;  // the rows the residuals cover: where the variable was measured
+            for (size_t i = 0; i < r.points; ++i) count += std::isnan(r.residuals[i * n + at]) ? 0 : 1;
+            *rows = count;
+        }
         return ELY_OK;
     });
 }

@@ -230,17 +230,7 @@ Bounds read_bounds(const Block& block, const std::vector<const Variable*>& free,
     return b;
 }
 
-std::string fit_text(int32_t (*call)(const ely_fit*, char*, size_t, size_t*), const ely_fit* fit, const char* what) {
-    size_t n = 0;
-    check(call(fit, nullptr, 0, &n), what);
-    std::string text(n, '\0');
-    check(call(fit, text.data(), text.size(), &n), what);
-    text.resize(n - 1);  // the NUL
-    return text;
-}
-
-// The fitted values, and the root mean square deviation of each measured variable: the calibrated
-// block solved at the data's rows.
+// The fitted values with their standard errors, and the RMSE of each measured variable.
 void write_table(Output& out, const Block& block, const std::vector<const Variable*>& free, const ely_fit* fit,
                  const Data& d) {
     out.print("{:<48} {:>14} {:>12}  {}\n", "parameter", "value", "std. error", "unit");
@@ -249,26 +239,12 @@ void write_table(Output& out, const Block& block, const std::vector<const Variab
         check(ely_fit_parameter(fit, static_cast<int32_t>(k), &value, &se), "result");
         out.print("{:<48} {:>14.6g} {:>12.3g}  {}\n", free[k]->info.name, value, se, free[k]->info.unit);
     }
-    const std::size_t n_measured = d.measured.size();
-    std::vector<double> model(d.points * n_measured);
-    std::vector<int32_t> row_status(d.points);
-    check(ely_block_solve_batch(block.handle(), d.points, static_cast<int32_t>(d.inputs.size()), d.inputs.data(),
-                                d.input_values.data(), static_cast<int32_t>(n_measured), d.measured.data(), model.data(),
-                                row_status.data(), nullptr, nullptr),
-          "the fitted model at the data's rows");
-    for (std::size_t m = 0; m < n_measured; ++m) {
-        double sum = 0;
-        std::size_t count = 0;
-        for (std::size_t i = 0; i < d.points; ++i) {
-            const double measured = d.measured_values[i * n_measured + m];
-            if (std::isnan(measured) || d.weights[i * n_measured + m] == 0) continue;
-            const double r = model[i * n_measured + m] - measured;
-            sum += r * r;
-            ++count;
-        }
+    for (std::size_t m = 0; m < d.measured.size(); ++m) {
+        double rmse = NAN;
+        size_t rows = 0;
+        check(ely_fit_rmse(fit, static_cast<int32_t>(m), &rmse, &rows), "result");
         const Variable& v = block.variables()[static_cast<std::size_t>(d.measured[m])];
-        out.print("RMSE of {} over {} rows: {:.4g} {}\n", v.info.name, count,
-                  count ? std::sqrt(sum / static_cast<double>(count)) : NAN, v.info.unit);
+        out.print("RMSE of {} over {} rows: {:.4g} {}\n", v.info.name, rows, rmse, v.info.unit);
     }
 }
 
@@ -309,11 +285,11 @@ int run(const FitOptions& o) {
     const std::string warning = status == ELY_WARNING ? last_error() : "";
     if (!o.output.empty()) {
         Output file(o.output, "--output");
-        file.write(fit_text(&ely_fit_plant_json, fit.get(), "calibrated plant"));
+        file.write(buffer_text(&ely_fit_plant_json, fit.get(), "calibrated plant"));
         file.close();
     }
     Output out;
-    if (o.format == "json") out.print("{}\n", fit_text(&ely_fit_report_json, fit.get(), "report"));
+    if (o.format == "json") out.print("{}\n", buffer_text(&ely_fit_report_json, fit.get(), "report"));
     else write_table(out, *block, free, fit.get(), d);
     out.close();
     if (!warning.empty()) note("fit", "warning: " + warning);

@@ -84,6 +84,17 @@ open(sys.argv[2], "w").write("\n".join(out) + "\n")
 PY
     "$bin" fit "$tmp/plant.json" "$tmp/weighted.csv" --free contact_resistance --format json >"$tmp/w.json" \
       || fail "weighted fit exited $?"
+    # The table's RMSE is the report's: over the 11 rows where the voltage was measured (the row
+    # weighed out included), the same number.
+    "$bin" fit "$tmp/plant.json" "$tmp/weighted.csv" --free contact_resistance >"$tmp/w.txt" || fail "table exited $?"
+    $py - "$tmp/w.json" "$tmp/w.txt" <<'PY' || fail "the table's RMSE is not the report's: $(cat "$tmp/w.txt")"
+import json, re, sys
+r = json.load(open(sys.argv[1]))
+(line,) = [l for l in open(sys.argv[2]) if l.startswith("RMSE")]
+m = re.fullmatch(r"RMSE of cell\.voltage over (\d+) rows: (\S+) V\n", line)
+assert m and int(m.group(1)) == 11, line
+assert abs(float(m.group(2)) / r["rmse"]["cell.voltage"] - 1) < 5e-4, (line, r["rmse"])
+PY
     $py - "$tmp/w.json" <<'PY' || fail "weights or missing values not applied"
 import json, sys
 r = json.load(open(sys.argv[1]))

@@ -314,6 +314,13 @@ ELY_API int32_t ely_fit_plant_json(const ely_fit* fit, char* buffer, size_t capa
  * NaN when the data cannot give one). Either out-pointer may be NULL. */
 ELY_API int32_t ely_fit_parameter(const ely_fit* fit, int32_t k, double* value, double* standard_error);
 
+/* Measured variable o (0..n_measured-1, in the order given): the root mean square of its
+ * residuals, model - measured, unweighted, in the variable's SI unit (the report's "rmse"; NaN
+ * when it was measured at no row), and the number of rows where it was measured (a weight of
+ * 0 included). Either out-pointer may be NULL. For hosts that show a fit's quality without
+ * reading JSON. */
+ELY_API int32_t ely_fit_rmse(const ely_fit* fit, int32_t o, double* rmse, size_t* rows);
+
 ELY_API void ely_fit_destroy(ely_fit* fit); /* NULL is a no-op */
 
 #ifdef __cplusplus
