@@ -53,6 +53,12 @@ struct TechnologyInfo {
     std::vector<StackDefault> stack_defaults;
     std::vector<SummaryGroup> summary;
     const char* example;  // a minimal plant description, path relative to the source tree
+    /// The rated (nominal) current density a plant of this technology runs at, A/m², with its
+    /// source: the default of plant.limits.rated_current_density, against which load, minimum load
+    /// and the current-density alarm are counted. Distinct from the cell model's validity limit
+    /// (its envelope). 0: no single value fits the technology (the custom cell: its envelope maximum).
+    double rated_current_density = 0.0;
+    const char* rated_current_density_source = "";
 
     bool has(uint32_t wanted) const { return (features & wanted) == wanted; }
 };

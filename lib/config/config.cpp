@@ -337,6 +337,10 @@ void settle_operating_point(const json::value& root, PlantDesign& d) {
         const double j_max = c[par_current_density_max] > 0 ? std::min(c[par_current_density_max], e.current_density_max)
                                                             : e.current_density_max;
         c[in_current_density] = std::min(c[in_current_density], 0.5 * j_max);
+        // Not above the plant's rated current density (given, else the technology's).
+        const double rated = c[par_rated_current_density] > 0 ? c[par_rated_current_density]
+                                                              : d.technology->rated_current_density;
+        if (rated > 0) c[in_current_density] = std::min(c[in_current_density], rated);
     }
     const TechnologyInfo& t = *d.technology;
     const auto check = [&](Var v, double lo, double hi) {

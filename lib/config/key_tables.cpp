@@ -91,6 +91,7 @@ const std::vector<PlantField>& auxiliaries_fields() {
 const std::vector<PlantField>& limits_fields() {
     static const std::vector<PlantField> fields = {
         variable(par_current_density_max),
+        variable(par_rated_current_density),
         variable(par_min_load_fraction),
         variable(par_temperature_max),
     };
@@ -142,7 +143,8 @@ const std::vector<PlantField>& operating_fields() {
         PlantField{"spec", Type::spec, "which drive input the solve reads; its value must be given"}.mandatory(),
         variable(in_current_density)
             .defaults("1e4 A/m2, or half the maximum current density (plant.limits.current_density_max, else "
-                      "the cell model's) if that is lower"),
+                      "the cell model's) or the rated current density (plant.limits.rated_current_density, else the "
+                      "technology's) if either is lower"),
         variable(in_current).defaults(kWhenRead),
         variable(in_power).defaults(kWhenRead),
         variable(in_hydrogen_rate).defaults(kWhenRead),

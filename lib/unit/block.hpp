@@ -75,6 +75,7 @@ private:
     void set_plant_parameter(Var v, double value);
     void set_cell_parameter(std::size_t k, double value);
     double rectifier_rating() const;
+    double default_rated_current_density() const;
 
     // spec_solve.cpp
     double max_current_density(double temperature, double p_anode, double p_cathode) const;

@@ -137,7 +137,7 @@ void Block::fill_outputs(const PointResult& r) {
     v_[perf_efficiency_lhv] = r.stack_power > 0 ? h2 * lhv_per_kg() / r.stack_power : 0.0;
     v_[perf_water_per_hydrogen] = makes_h2 ? v_[feed_water] / h2 : kNaN;
     v_[perf_specific_energy_chlorine] = v_[product_chlorine] > 0 ? r.stack_power / v_[product_chlorine] : kNaN;
-    v_[perf_load_fraction] = c.current_density / v_[par_current_density_max];
+    v_[perf_load_fraction] = c.current_density / v_[par_rated_current_density];
 
     if (own_count_ > 0) {
         PlantFlows flows;

@@ -81,19 +81,25 @@ constexpr Entry kTable[] = {
     {par_active_area, structural("param.active_area", "m2", "active area per cell")
         .within(1e-6, 100).scaled(0.1).labelled("active area per cell").configured_by("$.stack.active_area")},
     {par_current_density_max, tunable("param.current_density_max", "A/m2",
-        "highest current density of the plant; 0 in the plant description (or when set) = the cell model's own maximum, "
-        "which is then the value")
-        .at_least(0).starts(0).scaled(2e4).labelled("rated current density").shown_in(display::A_per_cm2)
+        "highest current density the plant may be driven to (the spec solves stay at or below it); 0 in the plant "
+        "description (or when set) = the cell model's own maximum (its validity limit), which is then the value")
+        .at_least(0).starts(0).scaled(2e4).labelled("highest current density").shown_in(display::A_per_cm2)
         .configured_by("$.plant.limits.current_density_max")},
+    {par_rated_current_density, tunable("param.limits.rated_current_density", "A/m2",
+        "rated (nominal) current density of the plant: load, minimum load, the current-density alarm and the "
+        "automatic rectifier rating count against it; 0 = the technology's documented rated value (docs/variables.md, "
+        "technology registry), for a custom cell its maximum current density")
+        .at_least(0).starts(0).scaled(1e4).labelled("rated current density").shown_in(display::A_per_cm2)
+        .configured_by("$.plant.limits.rated_current_density")},
     {par_min_load_fraction, tunable("param.limits.min_load_fraction", "1",
-        "minimum load as a fraction of the maximum current density; below it an alarm is raised")
+        "minimum load as a fraction of the rated current density; below it an alarm is raised")
         .within(0, 1).starts(0.1).scaled(0.1).labelled("minimum load").shown_in(display::percent)
         .configured_by("$.plant.limits.min_load_fraction")},
     {par_temperature_max, tunable("param.limits.temperature_max", "K",
         "highest stack temperature of the plant, above it an alarm; 0 = the cell model's envelope")
         .at_least(0).starts(0).scaled(350).labelled("temperature limit").configured_by("$.plant.limits.temperature_max")},
     {par_rectifier_rated_power, tunable("param.rectifier.rated_power", "W",
-        "rated DC power of the plant's rectifier; 0 = sized to the stacks at their maximum current density at the "
+        "rated DC power of the plant's rectifier; 0 = sized to the stacks at the rated current density at the "
         "configured operating point")
         .at_least(0).starts(0).scaled(1e6).labelled("rectifier rating").shown_in(display::MW)
         .configured_by("$.plant.rectifier.rated_power")},
@@ -240,7 +246,7 @@ constexpr Entry kTable[] = {
         .needing(H2).labelled("efficiency (LHV, DC)").shown_in(display::percent)},
     {perf_specific_energy_chlorine, output("perf.specific_energy_chlorine", "J/kg", "DC stack energy per kg of chlorine product")
         .needing(BRINE).scaled(1e7).labelled("DC energy per tonne of chlorine").shown_in(display::kWh_per_t)},
-    {perf_load_fraction, output("perf.load_fraction", "1", "current density over the maximum current density")
+    {perf_load_fraction, output("perf.load_fraction", "1", "current density over the rated current density")
         .scaled(0.5).labelled("load (of rated current density)").shown_in(display::percent)},
     {perf_water_per_hydrogen, output("perf.water_per_hydrogen", "1", "make-up water per hydrogen product, kg/kg")
         .needing(H2).scaled(9).labelled("water per hydrogen").shown_in(display::kg_per_kg)},
@@ -251,10 +257,10 @@ constexpr Entry kTable[] = {
         "1 when hydrogen in the anode gas is at or above the trip level")},
     {alarm_temperature_high, alarm("alarm.temperature_high", "stack temperature above its limit",
         "1 when the stack temperature is above its limit")},
-    {alarm_current_density_high, alarm("alarm.current_density_high", "current density above the rated maximum",
-        "1 when the current density is above the rated maximum")},
+    {alarm_current_density_high, alarm("alarm.current_density_high", "current density above the rated current density",
+        "1 when the current density is above the rated current density")},
     {alarm_load_low, alarm("alarm.load_low", "load below the minimum load",
-        "1 when the load is below the minimum load fraction")},
+        "1 when the current density is below the minimum load fraction of the rated current density")},
     {alarm_extrapolated, alarm("alarm.extrapolated", "cell model extrapolated beyond its fitted range",
         "1 when the cell model runs outside the range its parameters were fitted in")},
     {alarm_any, alarm("alarm.any", "an alarm is raised", "1 when any alarm above is raised")},

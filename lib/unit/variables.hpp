@@ -31,7 +31,7 @@ enum Var : int {
     in_temperature, in_pressure_cathode, in_pressure_anode, in_hours_operated, in_feed_temperature,
     // parameters: structural (fixed by the plant description), then tunable
     par_cells, par_stacks, par_active_area,
-    par_current_density_max, par_min_load_fraction, par_temperature_max,
+    par_current_density_max, par_rated_current_density, par_min_load_fraction, par_temperature_max,
     par_rectifier_rated_power, par_rectifier_loss_no_load, par_rectifier_loss_linear, par_rectifier_loss_quadratic,
     par_auxiliaries_fixed, par_auxiliaries_proportional,
     par_alarms_h2_in_o2_warning, par_alarms_h2_in_o2_trip, par_alarms_lower_flammability_limit,

@@ -537,7 +537,7 @@ INSTANTIATE_TEST_SUITE_P(
 TEST(UnitAlarms, LowLoadRaisesHydrogenInOxygenProgressively) {
     Probe p(plant("alkaline"));
     p.block.solve();
-    const double j_max = p.get("param.current_density_max");
+    const double j_max = p.get("param.limits.rated_current_density");
     p.set("in.current_density", 0.5 * j_max);
     EXPECT_FALSE(p.block.solve().warning);
     double previous = p.get("gas.h2_in_o2");
@@ -653,6 +653,44 @@ TEST(UnitParameters, AFailedSolveRollsParametersBack) {
     EXPECT_EQ(p.get("cell.voltage"), v);
     p.block.solve();  // solves again at the restored state
     EXPECT_EQ(p.get("cell.voltage"), v);
+}
+
+TEST(UnitParameters, LoadCountsAgainstTheRatedCurrentDensityNotTheModelLimit) {
+    // The plant's rated current density (IRENA 2020: PEM 1-3 A/cm2 nominal; the registry's default 2 A/cm2) is
+    // distinct from the cell model's validity limit (5 A/cm2 for PEM): 1 A/cm2 is half load, not 20 %.
+    Probe p(plant("pem", R"({"cell":{"h2_recombination_fraction_anode":0.9}})"));
+    EXPECT_EQ(p.get("param.limits.rated_current_density"), 2e4);
+    EXPECT_EQ(p.get("param.current_density_max"), 5e4);
+    p.set("in.current_density", 1e4);
+    p.block.solve();
+    EXPECT_DOUBLE_EQ(p.get("perf.load_fraction"), 0.5);
+    EXPECT_EQ(p.get("alarm.current_density_high"), 0.0);
+    // Above the rated value the plant still solves (up to the model's limit) and says so.
+    p.set("in.current_density", 2.5e4);
+    EXPECT_TRUE(p.block.solve().warning);
+    EXPECT_EQ(p.get("alarm.current_density_high"), 1.0);
+    EXPECT_DOUBLE_EQ(p.get("perf.load_fraction"), 1.25);
+    // Minimum load: 10 % of the rated value (default), not of the model's limit.
+    p.set("in.current_density", 2.1e3);
+    p.block.solve();
+    EXPECT_EQ(p.get("alarm.load_low"), 0.0);
+    p.set("in.current_density", 1.9e3);
+    p.block.solve();
+    EXPECT_EQ(p.get("alarm.load_low"), 1.0);
+    // A plant rated otherwise says so in its description; setting 0 restores the technology's value.
+    Probe rated(plant("pem", R"({"plant":{"limits":{"rated_current_density":"1.5 A/cm2"}}})"));
+    EXPECT_EQ(rated.get("param.limits.rated_current_density"), 1.5e4);
+    rated.set("param.limits.rated_current_density", 0);
+    EXPECT_EQ(rated.get("param.limits.rated_current_density"), 2e4);
+    // Every technology has a rated value inside its cell model's envelope; the custom cell's is its maximum.
+    for (const auto& t : technologies()) {
+        Probe q(plant(t));
+        const double own = q.block.cell().envelope().current_density_max;
+        EXPECT_LE(q.get("param.limits.rated_current_density"), own) << t.name;
+        if (t.rated_current_density == 0) {
+            EXPECT_EQ(q.get("param.limits.rated_current_density"), own) << t.name;
+        }
+    }
 }
 
 TEST(UnitParameters, ZeroCurrentDensityMaximumMeansTheCellModelsOwn) {
