@@ -82,6 +82,7 @@ void Block::fill_outputs(const PointResult& r) {
     v_[product_caustic_solution] = c.caustic_mass_fraction > 0 ? v_[product_caustic] / c.caustic_mass_fraction : 0.0;
     v_[feed_water] = water_in * molar_mass::H2O;
     v_[feed_salt] = r.consumed[kNaCl] * molar_mass::NaCl;
+    v_[feed_hydrogen] = r.consumed[kH2] * molar_mass::H2;
 
     v_[stream_cathode_mass_flow] = r.cathode[kH2] * molar_mass::H2 + r.cathode[kO2] * molar_mass::O2 + water_c * molar_mass::H2O;
     v_[stream_cathode_temperature] = t;
@@ -113,6 +114,7 @@ void Block::fill_outputs(const PointResult& r) {
     }
     if (r.consumed[kNaCl] > 0) h_in += r.consumed[kNaCl] * aqueous_solute(Solute::sodium_chloride, t_feed).enthalpy;
     const double h_h2 = ideal_gas(Species::hydrogen, t).enthalpy;
+    h_in += r.consumed[kH2] * h_h2;  // standby: drawn back from the product line
     h_out += (r.cathode[kH2] + r.anode[kH2]) * h_h2;
     if (r.cathode[kO2] + r.anode[kO2] > 0) h_out += (r.cathode[kO2] + r.anode[kO2]) * ideal_gas(Species::oxygen, t).enthalpy;
     if (r.anode[kCl2] > 0) h_out += r.anode[kCl2] * ideal_gas(Species::chlorine, t).enthalpy;

@@ -206,6 +206,11 @@ constexpr Entry kTable[] = {
         .scaled(1e-1).labelled("make-up water").shown_in(display::kg_per_h)},
     {feed_salt, output("feed.salt", "kg/s", "sodium chloride consumed")
         .needing(BRINE).scaled(1e-1).labelled("salt").shown_in(display::kg_per_h)},
+    {feed_hydrogen, output("feed.hydrogen", "kg/s",
+        "hydrogen drawn back from the product line: in hot standby (no current) or below the current density at "
+        "which the gas crossing the separator equals the gas made, the cathode loses more hydrogen to the anode side "
+        "than it makes, and the plant holding its cathode pressure feeds the difference; 0 in production")
+        .needing(H2).at_least(0).scaled(1e-4).labelled("hydrogen drawn back (standby)").shown_in(display::kg_per_h)},
 
     {stream_cathode_mass_flow, output("stream.cathode.mass_flow", "kg/s", "cathode product stream, wet")
         .scaled(1e-2).labelled("cathode gas (wet)").shown_in(display::kg_per_h)},

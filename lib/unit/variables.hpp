@@ -46,7 +46,7 @@ enum Var : int {
     plant_rectifier_loss, plant_rectifier_efficiency, plant_auxiliary_power,
     // products and feeds (plant totals)
     product_hydrogen, product_oxygen, product_chlorine, product_caustic, product_caustic_solution,
-    feed_water, feed_salt,
+    feed_water, feed_salt, feed_hydrogen,
     // streams
     stream_cathode_mass_flow, stream_cathode_temperature, stream_cathode_pressure, stream_cathode_x_h2,
     stream_cathode_x_o2, stream_cathode_x_h2o,

@@ -199,7 +199,7 @@ TEST_P(UnitBalances, ElementAndEnergyBalancesCloseOverRandomPoints) {
         double liquid_out = (p.get_or_zero("product.caustic_solution") - p.get_or_zero("product.caustic")) / molar_mass::H2O;
         if (!p.block.design().drag_water_returned)  // drag water leaves as liquid: n_d·j/F per m²
             liquid_out += p.get("param.cell.electroosmotic_drag") * p.get("cell.current_density") / kFaraday * kAreaTotal;
-        const double h_in = 2 * water_in, o_in = water_in;
+        const double h_in = 2 * water_in + 2 * p.get_or_zero("feed.hydrogen") / molar_mass::H2, o_in = water_in;
         const double h_out = 2 * (c.h2 + a.h2 + c.h2o + a.h2o + liquid_out) + naoh;
         const double o_out = 2 * (c.o2 + a.o2) + c.h2o + a.h2o + liquid_out + naoh;
         ASSERT_LT(rel_err(h_in, h_out, h_in), 1e-12) << tech.name << " H, point " << k;
@@ -421,19 +421,71 @@ TEST(UnitSpecs, PowerAndCurrentAreTotalsOverAllStacks) {
     EXPECT_NEAR(by_current.get("cell.current_density"), 1000 / (0.05 * 2), 1e-9);
 }
 
-TEST(UnitSpecs, TargetsBelowTheSmallestCurrentDensityAreInfeasible) {
-    // At 30 bar the membrane passes enough hydrogen that a PEM cell needs a minimum current
-    // to make net gas; a power or hydrogen target under it cannot be met.
+TEST(UnitSpecs, TargetsBelowTheSmallestCurrentDensityOfProductionReachStandby) {
+    // At 30 bar the membrane passes enough hydrogen that a PEM cell needs a minimum current to make net gas.
+    // A power under it still has an operating point: standby, hydrogen drawn back, the anode gas tripping.
     Probe p(plant("pem", R"({"operating":{"spec":"power","power":1000,"pressure_cathode":"30 bar"}})"));
-    p.set("in.power", 1.0);
-    ely::test::expect_error([&] { p.block.solve(); }, ErrorKind::infeasible, "smallest current density");
     const double j_min = p.block.cell().current_density_minimum({1e4, p.get("in.temperature"), 101325, 30e5});
     EXPECT_GT(j_min, 0.0);
-    // Just above the minimum the power spec solves, and lands above it.
+    p.set("in.power", 1.0);
+    const auto outcome = p.block.solve();
+    EXPECT_NEAR(p.get("stack.power"), 1.0, 1e-9);
+    EXPECT_LT(p.get("cell.current_density"), j_min);
+    EXPECT_EQ(p.get("product.hydrogen"), 0.0);
+    EXPECT_GT(p.get("feed.hydrogen"), 0.0);
+    EXPECT_TRUE(outcome.warning);
+    EXPECT_EQ(p.get("alarm.h2_in_o2_trip"), 1.0);
+    // Just above the minimum the power spec solves, and lands above it with hydrogen made.
     p.set("in.power", 20 * 3 * 0.05 * 1.5 * 3 * j_min);
     p.block.solve();
     EXPECT_GT(p.get("cell.current_density"), j_min);
     EXPECT_GT(p.get("product.hydrogen"), 0.0);
+    EXPECT_EQ(p.get("feed.hydrogen"), 0.0);
+    // A cell voltage below the reversible voltage has no operating point.
+    p.block.set_spec(Spec::voltage);
+    p.set("in.voltage", 1.0);
+    ely::test::expect_error([&] { p.block.solve(); }, ErrorKind::infeasible, "below what the plant gives at open circuit");
+}
+
+TEST(UnitStandby, NoOperatingPointReportsASafeAnodeGasThatIsNot) {
+    // Hot standby under pressure (cell at temperature, 30 bar of hydrogen on the cathode, no or little current):
+    // the gas on the anode side is the hydrogen the membrane passes against the little oxygen made. From open
+    // circuit to the current at which crossover equals production the anode gas is mostly hydrogen (at that
+    // current the anode still holds the crossed hydrogen against half its amount of oxygen: two thirds
+    // hydrogen when the cathode recombines the oxygen that crosses), so the trip alarm stays raised all the way;
+    // above it the purity falls continuously towards the production value.
+    for (const char* technology : {"pem", "alkaline", "aem"}) {
+        SCOPED_TRACE(technology);
+        Probe p(plant(technology, R"({"operating":{"pressure_cathode":"30 bar","pressure_anode":"30 bar"}})"));
+        const double t = p.get("in.temperature");
+        const double j_min = p.block.cell().current_density_minimum({0.0, t, 30e5, 30e5});
+        p.set("in.current_density", 0.0);
+        const auto rest = p.block.solve();
+        EXPECT_TRUE(rest.warning);
+        EXPECT_EQ(p.get("gas.h2_in_o2"), 1.0);
+        EXPECT_EQ(p.get("alarm.h2_in_o2_trip"), 1.0);
+        EXPECT_EQ(p.get("product.hydrogen"), 0.0);
+        // Everything that crossed came from the product line and leaves with the anode gas (H balance).
+        EXPECT_NEAR(p.get("feed.hydrogen"), stream(p, "anode").h2 * molar_mass::H2, 1e-12 * p.get("feed.hydrogen"));
+        double previous = 1.0;
+        for (double f : {1e-6, 0.01, 0.1, 0.5, 0.9, 0.999}) {
+            p.set("in.current_density", f * j_min);
+            p.block.solve();
+            EXPECT_GE(p.get("gas.h2_in_o2"), p.get("param.alarms.h2_in_o2_trip")) << f;
+            EXPECT_EQ(p.get("alarm.h2_in_o2_trip"), 1.0) << f;
+            EXPECT_LE(p.get("gas.h2_in_o2"), previous) << f;
+            previous = p.get("gas.h2_in_o2");
+            EXPECT_EQ(p.get("product.hydrogen"), 0.0) << f;
+        }
+        // Continuous through the minimum: just below and just above it give nearly the same anode gas.
+        p.set("in.current_density", 0.999999 * j_min);
+        p.block.solve();
+        const double below = p.get("gas.h2_in_o2");
+        p.set("in.current_density", 1.000001 * j_min);
+        p.block.solve();
+        EXPECT_NEAR(p.get("gas.h2_in_o2"), below, 1e-4);
+        EXPECT_GT(p.get("product.hydrogen"), 0.0);
+    }
 }
 
 // --- Plant: rectifier, degradation, alarms ----------------------------------------------------
