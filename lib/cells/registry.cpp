@@ -83,7 +83,7 @@ const std::vector<TechnologyInfo>& technologies() {
          "examples/minimal/alkaline.json", 4.0e3,
          "0.4 A/cm2: inside the 0.2-0.8 A/cm2 nominal current density of alkaline electrolysers (IRENA, Green "
          "Hydrogen Cost Reduction, 2020)"},
-        {"solid_oxide", "solid oxide steam electrolysis", kMakesHydrogen | kMakesOxygen, solid_oxide_parameters,
+        {"solid_oxide", "solid oxide steam electrolysis", kMakesHydrogen | kMakesOxygen | kSteamFeed, solid_oxide_parameters,
          make_solid_oxide_cell, {}, water_summary(), "examples/minimal/solid_oxide.json", 1.0e4,
          "1 A/cm2: the upper end of the 0.3-1 A/cm2 nominal current density of solid oxide electrolysers (IRENA, "
          "Green Hydrogen Cost Reduction, 2020; from memory)"},

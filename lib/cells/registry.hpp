@@ -25,6 +25,7 @@ enum TechnologyFeature : uint32_t {
     kBrineProducts = 1u << 2,   // chlorine, caustic soda and a salt feed
     kReactionTable = 1u << 3,   // built from the config's table of half-reactions instead of a parameter table
     kHeatFromThermoneutralVoltage = 1u << 4,  // products without enthalpy data: duty = N·I·(V − E_tn)
+    kSteamFeed = 1u << 5,       // fed steam: steam raising and an oxygen-electrode sweep in the plant balances
 };
 
 /// A cell parameter whose default is taken from the plant description's stack section, so

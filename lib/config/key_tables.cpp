@@ -118,6 +118,7 @@ const std::vector<PlantField>& thermal_fields() {
         variable(in_feed_temperature),
         variable(par_heat_loss_coefficient),
         variable(par_ambient_temperature),
+        variable(par_gas_cooler_temperature),
     };
     return fields;
 }

@@ -61,6 +61,16 @@ public:
     /// every variable with its value (null when not a number) and unit.
     std::string report_json() const;
 
+    /// The energy balance of an operating point, W: the one place that computes it (streams.cpp), for the
+    /// steady outputs and for a dynamic layer that needs the heat released at the stack's temperature.
+    struct EnergyBalance {
+        double released = 0;      // P_DC + enthalpy of what enters the stacks − of what leaves them at T
+        double loss = 0;          // heat lost to ambient
+        double duty = 0;          // released − loss: heat to remove to hold the stack temperature
+        double gas_coolers = 0;   // heat removed in the gas coolers (stack temperature → cooler outlet)
+        double feed_heating = 0;  // heat supplied to raise steam and heat sweep air (steam-fed cells)
+    };
+
 private:
     enum class Kind : uint8_t { table, cell_parameter, own_output };
     struct Slot {
@@ -69,6 +79,7 @@ private:
     };
     struct Layout;  // per technology, built once (block.cpp)
     struct PointResult;
+    struct PlantStreams;
 
     Slot slot(int32_t index) const;
     [[noreturn]] void bad_index(int32_t index) const;
@@ -82,6 +93,8 @@ private:
     double solve_current_density(double j_max);
     void evaluate_at(double current_density, PointResult& out) const;
     // streams.cpp
+    void plant_streams(const PointResult& r, PlantStreams& out) const;
+    EnergyBalance energy_balance(const PointResult& r, const PlantStreams& streams) const;
     void fill_outputs(const PointResult& r);
     // alarms.cpp
     void fill_alarms(const PointResult& r);
