@@ -106,6 +106,12 @@ struct CellResult {
     // anode gas is the oxygen made).
     double oxygen_electrode_sweep = 0;
 
+    // Custom cells: the enthalpy flow of the reactions' species outside the component list (ions, metals,
+    // melts; products positive, reactants negative) at the cell temperature, W/m²; and, for a table without
+    // enthalpy data, that the heat must come from the thermoneutral voltage, N·I·(V − E_tn).
+    double other_species_enthalpy = 0;
+    bool heat_from_thermoneutral_voltage = false;
+
     uint32_t warnings = 0;  // CellWarning bits
 
     // Custom cells: one entry per half-reaction, its share of its electrode's current.

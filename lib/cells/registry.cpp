@@ -92,7 +92,7 @@ const std::vector<TechnologyInfo>& technologies() {
          "5 kA/m2: the middle of the 4-6 kA/m2 of membrane chlor-alkali cells (O'Brien, Bommaraju & Hine, "
          "Handbook of Chlor-Alkali Technology, 2005; from memory)"},
         {"custom", "custom cell from a table of competing half-reactions",
-         kMakesHydrogen | kReactionTable | kHeatFromThermoneutralVoltage, nullptr, nullptr, {}, custom_summary(),
+         kMakesHydrogen | kReactionTable, nullptr, nullptr, {}, custom_summary(),
          "examples/minimal/custom.json", 0.0,
          "none: the cell's own maximum current density (cell.current_density_max) unless the plant gives one"},
         {"aem", "anion-exchange-membrane water electrolysis (dilute KOH or pure-water feed)",

@@ -24,7 +24,6 @@ enum TechnologyFeature : uint32_t {
     kMakesOxygen = 1u << 1,     // an oxygen product (the anode gas of water cells)
     kBrineProducts = 1u << 2,   // chlorine, caustic soda and a salt feed
     kReactionTable = 1u << 3,   // built from the config's table of half-reactions instead of a parameter table
-    kHeatFromThermoneutralVoltage = 1u << 4,  // products without enthalpy data: duty = N·I·(V − E_tn)
     kSteamFeed = 1u << 5,       // fed steam: steam raising and an oxygen-electrode sweep in the plant balances
 };
 

@@ -167,12 +167,18 @@ Block::EnergyBalance Block::energy_balance(const PointResult& r, const PlantStre
         const auto& sol = s.solutions.streams[static_cast<std::size_t>(k)];
         if (!sol.inlet) h_out += solution_enthalpy(sol.salt, sol.water, sol.solute, t, p_liquid);
     }
+    // A custom cell's species outside the component list (ions, metals, melts), at the stack temperature.
+    h_out += c.other_species_enthalpy * r.area_total;
 
     e.loss = v_[par_heat_loss_coefficient] * design_.stacks() * (t - v_[par_ambient_temperature]);
-    if (design_.technology->has(kHeatFromThermoneutralVoltage)) {
-        // Products without enthalpy data here (metals, ...): the electrical work above the cell's
-        // thermoneutral voltage, N·I·(V − E_tn).
-        e.released = r.stack_current * design_.cells() * (c.voltage - c.thermoneutral_voltage);
+    if (c.heat_from_thermoneutral_voltage) {
+        // A reaction table without enthalpy data: the electrical work above the given thermoneutral voltage,
+        // N·I·(V − E_tn), its reaction taking liquid water at T; less what the water needs besides: warming the
+        // make-up and condensate to T and evaporating the vapour the gases carry.
+        const double water_in = pure_water_in * feed_water_enthalpy(t_feed, p_liquid) + condensate * liquid(s.t_out[0]);
+        const double water_out = (s.vapour_stack[0] + s.vapour_stack[1]) * h_vapour + s.drain * liquid(t) +
+                                 r.consumed[kH2O] * liquid(t);
+        e.released = r.stack_current * design_.cells() * (c.voltage - c.thermoneutral_voltage) - (water_out - water_in);
     } else {
         e.released = r.stack_power + h_in - h_out;
     }

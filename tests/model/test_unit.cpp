@@ -22,6 +22,7 @@
 #include "thermo/if97.hpp"
 #include "thermo/reaction.hpp"
 #include "thermo/species.hpp"
+#include "thermo/species_table.hpp"
 #include "thermo/water.hpp"
 #include "unit/block.hpp"
 
@@ -267,16 +268,15 @@ TEST_P(UnitBalances, ElementAndEnergyBalancesCloseOverRandomPoints) {
         // enthalpies the block sums. The two differ by one known amount: the block anchors the
         // vapour to CODATA's heat of vaporisation to the ideal gas at 298.15 K, 44.004 kJ/mol
         // (ΔfH° of H2O g and l), this route takes IF97's, 44.011 kJ/mol (region 2 ideal part less
-        // region 1 at 1 bar): 7.2 J per mol of vapour, below 1e-4 of the power at these loads.
+        // region 1 at 1 bar): 7.2 J per mol of vapour, below 1e-4 of the power at these loads, where
+        // the gases carry little vapour; allowed for near the boiling point, where they carry much.
         const double power = p.get("stack.power");
-        if (tech.has(kHeatFromThermoneutralVoltage)) {
-            // No enthalpy data for the products: the duty has the sign of the voltage above E_tn.
-            ASSERT_EQ(p.get("heat.duty") + p.get("heat.loss") > 0,
-                      p.get("cell.voltage") > p.get("cell.thermoneutral_voltage"));
-        } else {
+        {
             const double hess = duty_by_hess_law(p, tech, t, t_feed, std::max(pa, pc));
+            const double vapour = steam_fed(p) ? 0.0 : vapour_leaving_stacks(p);
             worst_hess = std::max(worst_hess, std::fabs(hess - p.get("heat.duty")) / power);
-            ASSERT_LT(std::fabs(hess - p.get("heat.duty")), 1e-4 * power) << tech.name << " energy, point " << k;
+            ASSERT_LT(std::fabs(hess - p.get("heat.duty")), 1e-4 * power + 7.5 * vapour)
+                << tech.name << " energy, point " << k;
         }
 
         // Faraday's law: product hydrogen = j·A_total/(2F)·η_F·M_H2.
@@ -1105,7 +1105,8 @@ TEST(UnitLifeCycle, OutputsAreStaleAfterASetAndInputsAreChecked) {
 }
 
 TEST(UnitExamples, EveryBundledConfigurationSolves) {
-    const char* files[] = {"examples/demo-plant.json", "examples/zinc-electrowinning.json"};
+    const char* files[] = {"examples/demo-plant.json", "examples/zinc-electrowinning.json",
+                           "examples/molten-salt-sodium.json"};
     for (const char* f : files) {
         Block b(load_config_file(source_path(f)));
         EXPECT_NO_THROW(b.solve()) << f;
@@ -1138,6 +1139,160 @@ TEST(UnitCustom, ReactionSharesAndProductRatesThroughTheBlock) {
         previous_h2_share = h2;
     }
     EXPECT_THROW(b.find("product.chlorine"), Error);
+}
+
+TEST(UnitCustom, ZincExampleRunsInThePublishedIndustrialRange) {
+    // Industrial zinc electrowinning: 3.3-3.5 V at 400-600 A/m2, current efficiency 89-92 %, 30-40 C (a 2021
+    // zinc electrowinning study's summary of practice, stored copy seen: ProQuest 2602139832); its ohmic drop
+    // (electrolyte gap, contacts) 0.4-0.6 V (from memory). As the bath warms the voltage falls (faster kinetics,
+    // a better conducting electrolyte) while hydrogen evolution grows and the current efficiency falls (plant
+    // experience, from memory).
+    Block b(load_config_file(source_path("examples/zinc-electrowinning.json")));
+    const auto get = [&](const char* n) { return b.get(b.find(n)); };
+    b.solve();
+    EXPECT_EQ(get("in.temperature"), 311.15);
+    EXPECT_EQ(get("cell.current_density"), 500.0);
+    EXPECT_GE(get("cell.voltage"), 3.3);
+    EXPECT_LE(get("cell.voltage"), 3.5);
+    EXPECT_GE(get("reaction.cathode_1.current_efficiency"), 0.89);
+    EXPECT_LE(get("reaction.cathode_1.current_efficiency"), 0.92);
+    EXPECT_GE(get("cell.ohmic"), 0.4);
+    EXPECT_LE(get("cell.ohmic"), 0.6);
+    // The heat is the electrical work above the thermoneutral voltage, not the DC power (about a third of it).
+    EXPECT_LT(get("heat.duty"), 0.5 * get("stack.power"));
+    EXPECT_GT(get("heat.duty"), 0.2 * get("stack.power"));
+    double v_previous = 1e9, ce_previous = 1.0;
+    for (double t : {303.15, 311.15, 318.15}) {
+        b.set(b.find("in.temperature"), t);
+        b.solve();
+        EXPECT_LT(get("cell.voltage"), v_previous) << t;
+        EXPECT_LT(get("reaction.cathode_1.current_efficiency"), ce_previous) << t;
+        v_previous = get("cell.voltage");
+        ce_previous = get("reaction.cathode_1.current_efficiency");
+    }
+}
+
+TEST(UnitCustom, MoltenSaltExampleRunsInThePublishedIndustrialRange) {
+    // Sodium from a NaCl-CaCl2 bath (42 wt % NaCl; liquid near 600 C, where NaCl alone melts at 801 C and sodium
+    // at 98 C) with graphite anodes: industrial cells run near 600 C at about 1 A/cm2 and 6-7 V, with 80-90 %
+    // current efficiency, about 10 kWh per kg of sodium (Downs cells; Pletcher & Walsh, Industrial
+    // Electrochemistry, 2nd ed. 1990, from memory). The current efficiency is lost to sodium that dissolves in
+    // the melt and burns with the chlorine (the metal fog seen in chloride melts and oxidised by the anode gas:
+    // a see-through-cell study, abstract seen), modelled as a transport-limited cathode reaction whose net effect
+    // is ½ Cl2 + e- -> Cl-: it rises with temperature, so the efficiency falls as the bath warms.
+    Block b(load_config_file(source_path("examples/molten-salt-sodium.json")));
+    const auto get = [&](const char* n) { return b.get(b.find(n)); };
+    b.solve();
+    EXPECT_EQ(get("in.temperature"), 873.15);
+    const double ce = get("reaction.cathode_1.current_efficiency");
+    EXPECT_GE(get("cell.voltage"), 6.0);
+    EXPECT_LE(get("cell.voltage"), 7.0);
+    EXPECT_GE(ce, 0.80);
+    EXPECT_LE(ce, 0.90);
+    // Reversible voltage: NaCl(l) -> Na(l) + ½ Cl2 at 600 C from the JANAF-based species (3.37 V) with the NaCl
+    // activity of the bath, Temkin ideal mixing, 0.58 (the cation fraction of Na+): + (RT/F) ln(1/0.58).
+    const double e0 = reaction_properties({{species_record("NaCl", Phase::melt), -1}, {species_record("Na", Phase::melt), 1},
+                                           {species_record("Cl2", Phase::gas), 0.5}},
+                                          1, 873.15)
+                          .gibbs / kFaraday;
+    EXPECT_NEAR(get("cell.reversible_voltage"), e0 + kGasConstant * 873.15 / kFaraday * std::log(1 / 0.58), 1e-9);
+    EXPECT_NEAR(e0, 3.37, 0.04);
+    // Chlorine leaves for the sodium made only (the rest burnt back): both at the current efficiency.
+    const double current = get("stack.current") * 40;  // 40 cells in series
+    EXPECT_NEAR(get("reaction.anode_1.product_rate") - get("reaction.cathode_2.product_rate") / 58.44e-3 * 0.5 * 70.90e-3,
+                ce * current / (2 * kFaraday) * 70.90e-3, 1e-6);
+    EXPECT_NEAR(get("reaction.cathode_1.product_rate"), ce * current / kFaraday * 22.98976928e-3, 1e-9);
+    EXPECT_EQ(get("feed.water"), 0.0);  // a dry melt: no water, no vapour
+    EXPECT_EQ(get("product.hydrogen"), 0.0);
+    const double kwh_per_kg = get("stack.power") / get("reaction.cathode_1.product_rate") / 3.6e6;
+    EXPECT_GT(kwh_per_kg, 8.0);
+    EXPECT_LT(kwh_per_kg, 11.0);
+    double ce_previous = 1.0, v_previous = 1e9;
+    for (double t : {863.15, 873.15, 883.15}) {
+        b.set(b.find("in.temperature"), t);
+        b.solve();
+        EXPECT_LT(get("reaction.cathode_1.current_efficiency"), ce_previous) << t;
+        EXPECT_LT(get("cell.voltage"), v_previous) << t;
+        ce_previous = get("reaction.cathode_1.current_efficiency");
+        v_previous = get("cell.voltage");
+    }
+}
+
+TEST(UnitCustom, HeatDutyFromSpeciesDataIsTheWorkAboveTheThermoneutralVoltage) {
+    // A cell whose products the species table describes: its heat is not the DC power but N·I·(V − E_tn), with E_tn
+    // the reactions' enthalpy ΔH(T)/F weighted by the current shares — here summed by the block species by species
+    // (the metal and the ions from their rows, the gases from the stream bookkeeping) and compared with ΔH taken
+    // independently. Molten sodium cell (dry: no water): ΔH(T) of NaCl(l) -> Na(l) + ½ Cl2 from reaction_properties
+    // times the sodium share (the back-reaction's net change is nothing).
+    Block b(load_config_file(source_path("examples/molten-salt-sodium.json")));
+    const auto get = [&](const char* n) { return b.get(b.find(n)); };
+    for (double t : {863.15, 873.15, 883.15}) {
+        b.set(b.find("in.temperature"), t);
+        b.solve();
+        const double dh = reaction_properties({{species_record("NaCl", Phase::melt), -1},
+                                               {species_record("Na", Phase::melt), 1},
+                                               {species_record("Cl2", Phase::gas), 0.5}},
+                                              1, t)
+                              .enthalpy;
+        const double e_tn = get("reaction.cathode_1.current_efficiency") * dh / kFaraday;
+        EXPECT_NEAR(get("cell.thermoneutral_voltage"), e_tn, 1e-12);
+        const double n_i = get("stack.current") * 40;
+        EXPECT_NEAR(get("heat.duty") + get("heat.loss"), n_i * (get("cell.voltage") - e_tn), 1e-9 * get("stack.power"));
+    }
+    // Zinc electrowinning at 25 C, feed at 25 C: ΔH by hand from NBS/CODATA formation enthalpies (Zn2+ + H2O(l) ->
+    // Zn + ½ O2 + 2 H+: 439.72 kJ per 2 F, 2.27869 V; 2 H+ + H2O(l) -> H2 + ½ O2 + 2 H+: 1.48117 V), weighted by the
+    // shares; the water the gases carry away as vapour takes its heat of vaporisation, 44.004 kJ/mol (CODATA).
+    Block z(load_config_file(source_path("examples/zinc-electrowinning.json")));
+    const auto zget = [&](const char* n) { return z.get(z.find(n)); };
+    z.set(z.find("in.temperature"), 298.15);
+    z.set(z.find("in.feed_temperature"), 298.15);
+    z.solve();
+    const double zinc = zget("reaction.cathode_1.current_efficiency");
+    const double e_tn = zinc * 2.27869 + (1 - zinc) * 1.48117;
+    EXPECT_NEAR(zget("cell.thermoneutral_voltage"), e_tn, 2e-5);
+    const double vapour = zget("feed.water") / molar_mass::H2O -
+                          (zget("reaction.anode_1.product_rate") / molar_mass::O2) * 2;  // water leaving as vapour
+    const double n_i = zget("stack.current") * 40;
+    EXPECT_NEAR(zget("heat.duty"), n_i * (zget("cell.voltage") - e_tn) - vapour * 44004.0, 2e-5 * n_i);
+}
+
+TEST(UnitCustom, WetGasesAtOrAboveSaturationAreRefusedAndFlowsNeverGoNegative) {
+    // The minimal custom cell at 100 C and 1 atm: the water vapour pressure (101.418 kPa, IAPWS-IF97) exceeds the
+    // pressure, so the wet gases would be pure steam; refused, as for the water cells, instead of a negative
+    // make-up. Over the default envelope every point either solves with non-negative flows or is refused.
+    Probe p(plant("custom"));
+    p.set("in.temperature", 373.15);
+    p.set("in.pressure_cathode", 101325);
+    p.set("in.pressure_anode", 101325);
+    ely::test::expect_error([&] { p.block.solve(); }, ErrorKind::out_of_range, "not above the water vapour pressure");
+    const auto& env = p.block.cell().envelope();
+    std::mt19937_64 rng(8);
+    std::uniform_real_distribution<double> u(0.0, 1.0);
+    int solved = 0, refused = 0;
+    for (int k = 0; k < 2000; ++k) {
+        p.set("in.temperature", env.temperature_min + u(rng) * (env.temperature_max - env.temperature_min));
+        p.set("in.pressure_cathode", env.pressure_min + u(rng) * (env.pressure_max - env.pressure_min));
+        p.set("in.pressure_anode", env.pressure_min + u(rng) * (env.pressure_max - env.pressure_min));
+        p.set("in.current_density", u(rng) * 0.99 * env.current_density_max);
+        try {
+            p.block.solve();
+        } catch (const Error& e) {
+            EXPECT_EQ(e.kind(), ErrorKind::out_of_range) << e.what();
+            ++refused;
+            continue;
+        }
+        ++solved;
+        for (const char* name : {"feed.water", "stream.cathode.mass_flow", "stream.anode.mass_flow", "product.hydrogen",
+                                 "stream.condensate.mass_flow", "reaction.anode_1.product_rate"})
+            ASSERT_GE(p.get(name), 0.0) << name << " at point " << k;
+        // The latent heat of the vapour the gases carry is in the balance (Hess, with IF97).
+        const double hess = duty_by_hess_law(p, technology("custom"), p.get("in.temperature"), p.get("in.feed_temperature"),
+                                             std::max(p.get("in.pressure_anode"), p.get("in.pressure_cathode")));
+        ASSERT_LT(std::fabs(hess - p.get("heat.duty")), 1e-4 * p.get("stack.power") + 7.5 * vapour_leaving_stacks(p) + 1e-6)
+            << "point " << k;
+    }
+    EXPECT_GT(solved, 1500);
+    EXPECT_GT(refused, 20);
 }
 
 TEST(UnitReport, JsonNamesTheDriveInputAndEveryVariable) {
