@@ -696,6 +696,30 @@ TEST(UnitSpecs, TargetsBelowTheSmallestCurrentDensityOfProductionReachStandby) {
     ely::test::expect_error([&] { p.block.solve(); }, ErrorKind::infeasible, "below what the plant gives at open circuit");
 }
 
+TEST(UnitStandby, APlainPemAnodeAtOneAtmosphereRunsNearTheTripLevelAsPublished) {
+    // Trinke et al., J. Electrochem. Soc. 165 (2018) F502 (abstract seen): Nafion 117, 60 C, 1 A/cm2 and
+    // atmospheric pressure, supersaturation carries 98 % of the hydrogen permeation flux, so the pressure-driven
+    // diffusion is the other 2 %. With the diffusive permeability of the same group's cell, 2.95e-14 mol/(m s Pa)
+    // at 60 C (Trinke et al., J. Electrochem. Soc. 163 (2016) F3164, abstract seen), through 177.8 um at the
+    // hydrogen partial pressure 101325 - p_sat(60 C) = 81.38 kPa (IAPWS-IF97) that 2 % is 1.350e-5 mol/(m2 s),
+    // the whole flux 6.75e-4, against 1e4/(4F) = 2.591e-2 mol/(m2 s) of oxygen: the published numbers put about
+    // 2.5 % hydrogen in the anode gas of a plain anode (derived here). The model, whose supersaturation term
+    // comes from the 2017 paper's 20 bar per A/cm2, gives 2.1-2.6 %: a plain anode at atmospheric pressure runs
+    // at the 2 % trip level (raised) and a recombination catalyst brings it under the warning level.
+    const double p_h2 = 101325 - if97::saturation_pressure(333.15);
+    const double diffusion = 2.95e-14 * p_h2 / 177.8e-6;
+    const double published = (diffusion / 0.02) / (1e4 / (4 * kFaraday) + diffusion / 0.02);
+    EXPECT_NEAR(published, 0.0254, 0.0005);
+    Probe plain(plant("pem", R"({"operating":{"temperature":"60 degC","current_density":"1 A/cm2"}})"));
+    plain.block.solve();
+    EXPECT_NEAR(plain.get("gas.h2_in_o2"), published, 0.005);
+    EXPECT_EQ(plain.get("alarm.h2_in_o2_trip"), 1.0);
+    Probe catalysed(plant("pem", R"({"operating":{"temperature":"60 degC","current_density":"1 A/cm2"},
+                                    "cell":{"h2_recombination_fraction_anode":0.9}})"));
+    catalysed.block.solve();
+    EXPECT_LT(catalysed.get("gas.h2_in_o2"), catalysed.get("param.alarms.h2_in_o2_warning"));
+}
+
 TEST(UnitStandby, NoOperatingPointReportsASafeAnodeGasThatIsNot) {
     // Hot standby under pressure (cell at temperature, 30 bar of hydrogen on the cathode, no or little current):
     // the gas on the anode side is the hydrogen the membrane passes against the little oxygen made. From open
