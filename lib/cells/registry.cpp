@@ -41,11 +41,26 @@ std::vector<SummaryGroup> water_summary() {
     return {operating_point(),
             voltage_breakdown(),
             stacks_and_plant(),
-            {"Products and feeds", {"product.hydrogen", "product.oxygen", "feed.water", "perf.water_per_hydrogen"}},
+            {"Products and feeds",
+             {"product.hydrogen", "product.oxygen", "feed.water", "perf.water_per_hydrogen",
+              "stream.condensate.mass_flow", "feed.hydrogen"}},
             {"Efficiency and heat",
              {"cell.faraday_efficiency", "perf.specific_energy", "perf.specific_energy_plant", "perf.efficiency_hhv",
-              "heat.duty"}},
+              "heat.duty", "heat.gas_coolers"}},
             {"Gas purity", {"gas.h2_in_o2", "gas.o2_in_h2"}}};
+}
+
+// A steam-fed cell: its plant raises the steam and heats the sweep air; no crossover purity to show.
+std::vector<SummaryGroup> steam_summary() {
+    return {operating_point(),
+            voltage_breakdown(),
+            stacks_and_plant(),
+            {"Products and feeds",
+             {"product.hydrogen", "product.oxygen", "feed.water", "perf.water_per_hydrogen",
+              "stream.condensate.mass_flow", "feed.sweep_air"}},
+            {"Efficiency and heat",
+             {"cell.faraday_efficiency", "perf.specific_energy", "perf.specific_energy_plant", "perf.efficiency_hhv",
+              "heat.duty", "heat.feed_heating", "heat.gas_coolers"}}};
 }
 
 std::vector<SummaryGroup> brine_summary() {
@@ -84,7 +99,7 @@ const std::vector<TechnologyInfo>& technologies() {
          "0.4 A/cm2: inside the 0.2-0.8 A/cm2 nominal current density of alkaline electrolysers (IRENA, Green "
          "Hydrogen Cost Reduction, 2020)"},
         {"solid_oxide", "solid oxide steam electrolysis", kMakesHydrogen | kMakesOxygen | kSteamFeed, solid_oxide_parameters,
-         make_solid_oxide_cell, {}, water_summary(), "examples/minimal/solid_oxide.json", 1.0e4,
+         make_solid_oxide_cell, {}, steam_summary(), "examples/minimal/solid_oxide.json", 1.0e4,
          "1 A/cm2: the upper end of the 0.3-1 A/cm2 nominal current density of solid oxide electrolysers (IRENA, "
          "Green Hydrogen Cost Reduction, 2020; from memory)"},
         {"brine", "chlor-alkali membrane cell (brine electrolysis)", kMakesHydrogen | kBrineProducts, brine_parameters,
