@@ -1,5 +1,5 @@
 # Settings of the Windows cross build (scripts/windows; toolchain cmake/mingw-w64-x86_64.cmake).
-# Included by the top-level CMakeLists.txt in place of find_package(Boost) and find_package(fmt).
+# Included by the top-level CMakeLists.txt in place of find_package(Boost), (fmt) and (Eigen3).
 #
 # - Boost.JSON and fmt are used header-only: an include folder in the build tree holds only
 #   boost/ and fmt/ (symlinks to the host's headers), so glibc's headers never come first.
@@ -15,6 +15,14 @@ foreach(dir boost fmt)
   file(CREATE_LINK /usr/include/${dir} ${ELY_WINDOWS_HEADERS}/${dir} SYMBOLIC)
 endforeach()
 
+# Eigen (libeigen3-dev) is header-only too: its two folders beside them.
+foreach(dir Eigen unsupported)
+  if(NOT EXISTS /usr/include/eigen3/${dir})
+    message(FATAL_ERROR "/usr/include/eigen3/${dir} is missing: install libeigen3-dev")
+  endif()
+  file(CREATE_LINK /usr/include/eigen3/${dir} ${ELY_WINDOWS_HEADERS}/${dir} SYMBOLIC)
+endforeach()
+
 add_library(ely_host_headers INTERFACE)
 target_include_directories(ely_host_headers SYSTEM INTERFACE ${ELY_WINDOWS_HEADERS})
 add_library(Boost::headers ALIAS ely_host_headers)
@@ -22,6 +30,7 @@ add_library(ely_fmt_header_only INTERFACE)
 target_link_libraries(ely_fmt_header_only INTERFACE ely_host_headers)
 target_compile_definitions(ely_fmt_header_only INTERFACE FMT_HEADER_ONLY=1)
 add_library(fmt::fmt ALIAS ely_fmt_header_only)
+add_library(Eigen3::Eigen ALIAS ely_host_headers)
 
 set(CMAKE_SHARED_LIBRARY_PREFIX "")
 set(CMAKE_IMPORT_LIBRARY_PREFIX "lib")

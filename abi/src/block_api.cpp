@@ -9,13 +9,9 @@
 #include "base/excerpt.hpp"
 #include "config/config.hpp"
 #include "elyblock/elyblock.h"
+#include "block_handle.hpp"
 #include "guard.hpp"
 #include "unit/block.hpp"
-
-struct ely_block {
-    explicit ely_block(ely::Block b) : model(std::move(b)) {}
-    ely::Block model;
-};
 
 namespace {
 using ely::Error;
@@ -245,21 +241,7 @@ ELY_API int32_t ely_block_report_json(const ely_block* block, char* buffer, size
     return guard([&] {
         require_pointer(block, "block");
         require_pointer(length, "length");
-        const std::string text = block->model.report_json();
-        const size_t needed = text.size() + 1;
-        if (buffer == nullptr || capacity == 0) {
-            if (buffer == nullptr && capacity != 0)
-                throw Error(ErrorKind::invalid_argument, "buffer is NULL but capacity is not 0");
-            *length = needed;
-            return ELY_OK;
-        }
-        if (capacity < needed) {
-            *length = needed;
-            throw Error(ErrorKind::buffer_too_small,
-                        "buffer of " + std::to_string(capacity) + " bytes is too small; " + std::to_string(needed) + " needed");
-        }
-        std::memcpy(buffer, text.c_str(), needed);
-        *length = needed;
+        ely::capi::copy_text(block->model.report_json(), buffer, capacity, length);
         return ELY_OK;
     });
 }

@@ -12,6 +12,8 @@
 #include <utility>
 #include <vector>
 
+#include "fit_command.hpp"
+
 namespace {
 
 const char* const kCautions =
@@ -27,6 +29,8 @@ const char* const kUsage =
     "  elyblock sweep <config.json> --over NAME --from A --to B [--points N] [--spec S]\n"
     "                 [--set NAME=VALUE]... [--columns NAME,NAME,...] [--output FILE]\n"
     "      polarization curve or any one-input sweep, as CSV (stdout unless --output)\n"
+    "  elyblock fit <config.json> <data.csv> --free NAME[,NAME...] [--output FITTED.json] [--format table|json]\n"
+    "      fit tunable parameters to measured data; elyblock fit --help for more\n"
     "  elyblock variables <config.json>\n"
     "      list the block's variables: name, unit, causality, description\n"
     "  elyblock water <temperature K> <anode pressure Pa> <cathode pressure Pa>\n"
@@ -301,6 +305,7 @@ int main(int argc, char** argv) {
             fmt::print("elyblock {} (ABI {})\n", ely_version(), ely_abi_version());
             return 0;
         }
+        if (cmd == "fit") return run_fit_command(argc, argv);
         if (cmd == "water") return command_water(argc, argv);
         if (cmd == "solve") return command_solve(parse_options(argc, argv));
         if (cmd == "sweep") return command_sweep(parse_options(argc, argv));

@@ -451,6 +451,7 @@ PlantDesign parse_config(std::string_view json_text) {
     }
     if (!d.cell) throw Error(ErrorKind::internal, "$.cell: the cell model factory returned no cell");
     settle_operating_point(root, d);
+    d.source_json = std::make_shared<const std::string>(json_text);
     return d;
 }
 

@@ -31,6 +31,9 @@ struct PlantDesign {
     std::shared_ptr<const Cell> cell;
     std::shared_ptr<const ParameterValues> cell_parameters;
     std::shared_ptr<const CustomCellSpec> custom;  // the reaction table of a custom cell, else null
+    /// The JSON text the description was read from (null when built otherwise); a calibrated
+    /// plant description is this text with the fitted values written in (lib/calibration).
+    std::shared_ptr<const std::string> source_json;
 
     int cells() const { return static_cast<int>(configured[par_cells]); }
     int stacks() const { return static_cast<int>(configured[par_stacks]); }

@@ -203,6 +203,96 @@ ELY_API int32_t ely_block_solve_batch(const ely_block* block, size_t n_points, i
  * *length and writes nothing into buffer. */
 ELY_API int32_t ely_block_report_json(const ely_block* block, char* buffer, size_t capacity, size_t* length);
 
+/* ---- units ------------------------------------------------------------------------- */
+/* Converts value from one unit to another with the units a plant description accepts
+ * ("degC", "bar", "A/cm2", "ohm cm2", "kWh/kg", "%", ...; docs/config.md lists them):
+ * e.g. 1.5 "A/cm2" to "A/m2" gives 15000. The dimensions must agree (ELY_ERR_INVALID_ARGUMENT
+ * naming both units otherwise); a unit that does not parse is ELY_ERR_INVALID_ARGUMENT naming
+ * it. degC is a temperature (offset 273.15 K), not a difference: "25 degC" to "K" is 298.15. */
+ELY_API int32_t ely_convert_unit(double value, const char* from_unit, const char* to_unit, double* result);
+
+/* ---- calibration -------------------------------------------------------------------
+ * ely_block_fit fits tunable parameters of the block to measured data by weighted nonlinear
+ * least squares (Levenberg-Marquardt) within bounds; docs/calibration.md gives the method.
+ *
+ * Data, laid out like ely_block_solve_batch: n_points rows; row k sets the inputs
+ * input_indices[0..n_inputs) to inputs[k*n_inputs + i] (row-major; inputs the rows do not
+ * set keep the block's current values) and the block is solved with its spec; the model's
+ * values of the outputs measured_indices[0..n_measured) are compared with
+ * measured[k*n_measured + o]. A measured value of NaN means "not measured at this row" and is
+ * left out. weights (same layout, NULL for all 1) weigh the squared residuals, e.g. 1/sigma^2
+ * in the output's SI unit; a weight of 0 leaves a value out. Only ratios of weights matter to
+ * the standard errors, which scale with the residual variance of the fit.
+ *
+ * Free parameters: n_free names, each a tunable parameter's variable name
+ * ("param.cell.anode_exchange_current_density", "param.degradation.voltage_rate") or the key
+ * of the technology's cell object ("anode_exchange_current_density"). The fit starts from the
+ * block's current values (set others with ely_block_set first) and sets values only through
+ * the checks of ely_block_set, within the variable's limits or the options' tighter bounds.
+ *
+ * options may be NULL (defaults). The caller sets struct_size = sizeof(ely_fit_options); the
+ * struct only grows at its end. progress (may be NULL) is called after every iteration with
+ * (iteration, max_iterations); returning non-zero cancels the fit (ELY_ERR_CANCELLED).
+ *
+ * Returns ELY_OK, or ELY_WARNING when the report carries warnings (parameters the data
+ * cannot separate, a parameter at a bound, ...; ely_last_error() gives them joined by "; "):
+ * in both cases the block holds the fitted values (inputs and spec unchanged; solve before
+ * reading outputs) and *result receives the fit, to read with ely_fit_report_json,
+ * ely_fit_plant_json and ely_fit_parameter and to free with ely_fit_destroy. On an error
+ * *result is NULL and the block is unchanged: ELY_ERR_INVALID_ARGUMENT (a NULL array whose
+ * count is positive, a count below 1 for n_points, n_measured or n_free, an index that is
+ * not an input or not an output, a name given twice, a non-finite input, weight or bound,
+ * bounds outside the variable's limits, fewer measured values than free parameters, a
+ * parameter the measured outputs do not depend on at these rows); ELY_ERR_UNKNOWN_NAME (a
+ * free name); the status of a data row that cannot be solved at the start values (the
+ * message names the row, counted from 1); ELY_ERR_NO_CONVERGENCE (iteration limit; the
+ * message gives the best values found); ELY_ERR_CANCELLED. */
+typedef struct ely_fit ely_fit;
+
+#define ELY_FIT_SCALE_AUTO 0   /* log space for positive parameters whose limits span decades */
+#define ELY_FIT_SCALE_LINEAR 1
+#define ELY_FIT_SCALE_LOG 2    /* the start value must be positive */
+
+typedef struct ely_fit_options {
+    uint32_t struct_size;      /* sizeof(ely_fit_options) */
+    int32_t max_iterations;    /* Levenberg-Marquardt iterations; 0 means 200 */
+    double tolerance;          /* relative change of the sum of squares and of the step; 0 means 1e-10 */
+    const double* lower;       /* n_free lower bounds (SI) or NULL; a NaN entry keeps the variable's minimum */
+    const double* upper;       /* n_free upper bounds (SI) or NULL; a NaN entry keeps the variable's maximum */
+    const int32_t* scales;     /* n_free ELY_FIT_SCALE_* or NULL (all ELY_FIT_SCALE_AUTO) */
+} ely_fit_options;
+
+ELY_API int32_t ely_block_fit(ely_block* block, size_t n_points, int32_t n_inputs, const int32_t* input_indices,
+                              const double* inputs, int32_t n_measured, const int32_t* measured_indices,
+                              const double* measured, const double* weights, int32_t n_free,
+                              const char* const* free_names, const ely_fit_options* options,
+                              ely_progress_fn progress, void* user, ely_fit** result);
+
+/* The fit report as JSON text (UTF-8, NUL-terminated), with the buffer protocol of
+ * ely_block_report_json. Members: "parameters" (each "name", "config_key", "unit", "scale",
+ * "start", "value", "standard_error", "interval_95" [low, high], "bounds" [low, high],
+ * "at_bound"), "correlation" (n_free x n_free), "condition_number", "measured" (the measured
+ * variables' names), "rmse" (per measured variable, SI), "rmse_V" (when cell.voltage is
+ * measured), "residuals" and "fitted" (n_points rows of model - measured and of the model's
+ * values, null where not measured), "warnings", "termination", "iterations", "evaluations",
+ * "points", "measurements", "degrees_of_freedom", "sum_of_squares", "residual_variance", and
+ * "plant" (the calibrated plant description, as ely_fit_plant_json gives it).
+ * Numbers that are not defined (a standard error the data cannot give) are null. */
+ELY_API int32_t ely_fit_report_json(const ely_fit* fit, char* buffer, size_t capacity, size_t* length);
+
+/* The calibrated plant description as JSON text: the description the block was created from
+ * with the values of its tunable parameters in place (the fitted ones and any other set since
+ * create), which loads again and gives the fitted block exactly. Buffer protocol of
+ * ely_block_report_json. (Every block of this interface is created from JSON text, so every
+ * fit has one; the same text is the report's "plant".) */
+ELY_API int32_t ely_fit_plant_json(const ely_fit* fit, char* buffer, size_t capacity, size_t* length);
+
+/* Free parameter k (0..n_free-1, in the order named): fitted value and standard error (SI;
+ * NaN when the data cannot give one). Either out-pointer may be NULL. */
+ELY_API int32_t ely_fit_parameter(const ely_fit* fit, int32_t k, double* value, double* standard_error);
+
+ELY_API void ely_fit_destroy(ely_fit* fit); /* NULL is a no-op */
+
 #ifdef __cplusplus
 }
 #endif
