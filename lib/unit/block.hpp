@@ -34,6 +34,9 @@ public:
     const TechnologyInfo& technology() const { return *design_.technology; }
     /// The cell model in use: the configured one, or one rebuilt after a cell parameter was set.
     const Cell& cell() const { return *cell_; }
+    /// The rated current density a description that gives none gets: the technology's (registry), or
+    /// for a technology without one the cell model's maximum, A/m².
+    double default_rated_current_density() const;
 
     // Variables are addressed by a dense index 0..count-1: the table's variables that the
     // technology has (table order), its cell parameters, then the outputs its cell adds.
@@ -86,7 +89,6 @@ private:
     void set_plant_parameter(Var v, double value);
     void set_cell_parameter(std::size_t k, double value);
     double rectifier_rating() const;
-    double default_rated_current_density() const;
 
     // spec_solve.cpp
     double max_current_density(double temperature, double p_anode, double p_cathode) const;
