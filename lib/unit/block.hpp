@@ -15,6 +15,7 @@
 #include <string_view>
 #include <vector>
 
+#include "thermo/species.hpp"
 #include "unit/plant.hpp"
 #include "unit/variables.hpp"
 
@@ -102,6 +103,15 @@ private:
     void fill_alarms(const PointResult& r);
     std::string alarm_message() const;
 
+    // Ideal-gas molar enthalpies at the stack and gas-cooler temperatures, kept between solves (streams.cpp):
+    // batches and spec solves at one temperature need them once (a cache of a pure function).
+    struct GasEnthalpies {
+        double temperature = -1.0;
+        uint32_t known = 0;  // bit per Species
+        double enthalpy[kSpeciesCount] = {};
+    };
+    double gas_enthalpy(Species species, double temperature) const;
+
     PlantDesign design_;
     const Layout* layout_;  // static, per technology
     std::size_t own_count_;
@@ -112,6 +122,8 @@ private:
     std::vector<double> v_;  // by Var, then the own outputs
     double rectifier_rated_power_ = 0;
     double last_current_density_ = -1;  // warm start of the spec solves
+    mutable GasEnthalpies gas_enthalpies_[2];
+    mutable int gas_enthalpies_next_ = 0;
 
     // The last successful solve, for rollback.
     std::vector<double> last_good_;

@@ -23,6 +23,7 @@ struct Block::PlantStreams {
     double vapour_out[2]{};       // left after the gas cooler
     double condensate[2]{};       // condensed in the gas cooler, returned
     double t_out[2]{};            // K, gas cooler outlet
+    double p_sat_stack = 0, p_sat_cool = 0;  // Pa, water vapour pressure at the stack and cooler temperatures
     double drag = 0, drain = 0;   // water carried to the cathode; of it, leaving the plant
     double caustic_water = 0;     // water of the caustic solution (brine)
     double makeup = 0;            // feed.water

@@ -35,12 +35,9 @@ double lhv_per_kg() { return -kWaterVapourFormationEnthalpy / molar_mass::H2; }
 
 double air_molar_mass() { return kAirOxygenFraction * molar_mass::O2 + (1.0 - kAirOxygenFraction) * molar_mass::N2; }
 
-/// Water vapour a dry gas of `dry` mol/s carries when saturated at T over water of activity a_w at total
-/// pressure p: n_vap = n_dry·a_w·p_sat/(p − a_w·p_sat).
-double saturated_vapour(double dry, double t, double water_activity, double pressure) {
-    const double pv = water_activity * water_saturation_pressure(t);
-    return dry * pv / (pressure - pv);
-}
+/// Water vapour a dry gas of `dry` mol/s carries when saturated at partial pressure pv of water (a_w·p_sat)
+/// at total pressure p: n_vap = n_dry·pv/(p − pv).
+double saturated_vapour(double dry, double pv, double pressure) { return dry * pv / (pressure - pv); }
 
 /// Water fed at T and p: liquid (IAPWS-IF97 region 1) where that is liquid water, steam (ideal gas) above
 /// its boiling point or above region 1's 623.15 K.
@@ -49,14 +46,15 @@ double feed_water_enthalpy(double t, double pressure) {
     return ideal_gas(Species::water_vapour, t).enthalpy;
 }
 
-/// Dry gas of one side (H2, O2, Cl2 and nitrogen) per mol/s at T, J/s.
-double dry_gas_enthalpy(const Fluxes& gas, double nitrogen, double t) {
-    double h = 0;
-    if (gas[kH2] > 0) h += gas[kH2] * ideal_gas(Species::hydrogen, t).enthalpy;
-    if (gas[kO2] > 0) h += gas[kO2] * ideal_gas(Species::oxygen, t).enthalpy;
-    if (gas[kCl2] > 0) h += gas[kCl2] * ideal_gas(Species::chlorine, t).enthalpy;
-    if (nitrogen > 0) h += nitrogen * ideal_gas(Species::nitrogen, t).enthalpy;
-    return h;
+/// Dry gas of one side (H2, O2, Cl2 and nitrogen) per mol/s at T, J/s, with h(species, T) the molar enthalpy.
+template <class Enthalpy>
+double dry_gas_enthalpy(const Fluxes& gas, double nitrogen, double t, const Enthalpy& h) {
+    double sum = 0;
+    if (gas[kH2] > 0) sum += gas[kH2] * h(Species::hydrogen, t);
+    if (gas[kO2] > 0) sum += gas[kO2] * h(Species::oxygen, t);
+    if (gas[kCl2] > 0) sum += gas[kCl2] * h(Species::chlorine, t);
+    if (nitrogen > 0) sum += nitrogen * h(Species::nitrogen, t);
+    return sum;
 }
 
 /// A salt solution of `water` and `solute` mol/s at T: n_w·h_w(T) + n_s·(h°_s(T) + Φ_L(m, T)), the
@@ -71,6 +69,24 @@ double solution_enthalpy(AqueousSalt salt, double water, double solute, double t
 }
 }  // namespace
 
+double Block::gas_enthalpy(Species species, double t) const {
+    GasEnthalpies* entry = nullptr;
+    for (auto& e : gas_enthalpies_)
+        if (e.temperature == t) entry = &e;
+    if (!entry) {
+        entry = &gas_enthalpies_[gas_enthalpies_next_];
+        gas_enthalpies_next_ = 1 - gas_enthalpies_next_;
+        *entry = GasEnthalpies{};
+        entry->temperature = t;
+    }
+    const auto bit = 1u << static_cast<int>(species);
+    if (!(entry->known & bit)) {
+        entry->enthalpy[static_cast<int>(species)] = ideal_gas(species, t).enthalpy;
+        entry->known |= bit;
+    }
+    return entry->enthalpy[static_cast<int>(species)];
+}
+
 void Block::plant_streams(const PointResult& r, PlantStreams& s) const {
     const auto& c = r.cell;
     const double t = r.temperature, t_cool = std::min(t, v_[par_gas_cooler_temperature]);
@@ -80,6 +96,8 @@ void Block::plant_streams(const PointResult& r, PlantStreams& s) const {
     s.nitrogen[0] = 0.0;
     s.nitrogen[1] = (1.0 - kAirOxygenFraction) * s.sweep_air;
     s.steam_fed = 0.0;
+    s.p_sat_stack = c.gases_saturated ? water_saturation_pressure(t) : 0.0;
+    s.p_sat_cool = water_saturation_pressure(t_cool);
     for (int k = 0; k < 2; ++k) {
         const Fluxes& g = *side[k];
         s.gas[k] = g;
@@ -88,13 +106,14 @@ void Block::plant_streams(const PointResult& r, PlantStreams& s) const {
         s.dry[k] = s.gas[k][kH2] + s.gas[k][kO2] + s.gas[k][kCl2] + s.nitrogen[k];
         // Leaving the stack: saturated over the electrolyte, or the steam a steam-fed cell carries.
         const double a_w = k == 0 ? c.water_activity_cathode : c.water_activity_anode;
-        s.vapour_stack[k] = c.gases_saturated ? (s.dry[k] > 0 ? saturated_vapour(s.dry[k], t, a_w, pressure[k]) : 0.0)
-                                              : g[kH2O];
+        s.vapour_stack[k] = c.gases_saturated
+                                ? (s.dry[k] > 0 ? saturated_vapour(s.dry[k], a_w * s.p_sat_stack, pressure[k]) : 0.0)
+                                : g[kH2O];
         // After the gas cooler: at most saturated over the condensate (pure water) at its outlet temperature.
         s.t_out[k] = t_cool;
         s.vapour_out[k] = s.vapour_stack[k];
-        if (s.dry[k] > 0 && water_saturation_pressure(t_cool) < pressure[k])
-            s.vapour_out[k] = std::min(s.vapour_stack[k], saturated_vapour(s.dry[k], t_cool, 1.0, pressure[k]));
+        if (s.dry[k] > 0 && s.p_sat_cool < pressure[k])
+            s.vapour_out[k] = std::min(s.vapour_stack[k], saturated_vapour(s.dry[k], s.p_sat_cool, pressure[k]));
         s.condensate[k] = s.vapour_stack[k] - s.vapour_out[k];
     }
     if (!c.gases_saturated) s.steam_fed = r.consumed[kH2O] + s.vapour_stack[0] + s.vapour_stack[1];
@@ -121,10 +140,17 @@ Block::EnergyBalance Block::energy_balance(const PointResult& r, const PlantStre
     const auto& c = r.cell;
     const double t = r.temperature, t_feed = r.feed_temperature;
     const double p_liquid = std::max(r.p_anode, r.p_cathode);
-    const auto liquid = [&](double temperature) {
-        return liquid_water(temperature, std::max(p_liquid, water_saturation_pressure(temperature))).enthalpy;
+    // Liquid water at the stack and cooler temperatures (their vapour pressures known from the streams).
+    const double t_cool = s.t_out[0];
+    const auto liquid = [&](double temperature, double p_sat) {
+        return liquid_water(temperature, std::max(p_liquid, p_sat)).enthalpy;
     };
-    const double h_vapour = ideal_gas(Species::water_vapour, t).enthalpy;
+    const double h_liquid_cool = liquid(t_cool, s.p_sat_cool);
+    const auto h_liquid_stack = [&] { return liquid(t, water_saturation_pressure(t)); };
+    const auto h = [this](Species species, double temperature) { return gas_enthalpy(species, temperature); };
+    const double h_vapour = h(Species::water_vapour, t);
+    const double h_gas_stack[2] = {dry_gas_enthalpy(s.gas[0], s.nitrogen[0], t, h),
+                                   dry_gas_enthalpy(s.gas[1], s.nitrogen[1], t, h)};
     EnergyBalance e;
 
     // What enters the stacks.
@@ -137,30 +163,29 @@ Block::EnergyBalance Block::energy_balance(const PointResult& r, const PlantStre
     }
     const double condensate = s.condensate[0] + s.condensate[1];
     if (c.gases_saturated) {
-        h_in += pure_water_in * feed_water_enthalpy(t_feed, p_liquid) + condensate * liquid(s.t_out[0]);
+        h_in += pure_water_in * feed_water_enthalpy(t_feed, p_liquid) + condensate * h_liquid_cool;
     } else {
         // Steam and sweep air enter the stacks at their temperature, raised and heated in the plant
         // from the make-up water (feed temperature), the condensate (cooler temperature) and ambient air.
-        const double h_air_t = kAirOxygenFraction * ideal_gas(Species::oxygen, t).enthalpy +
-                               (1.0 - kAirOxygenFraction) * ideal_gas(Species::nitrogen, t).enthalpy;
+        const double h_air_t = kAirOxygenFraction * h(Species::oxygen, t) +
+                               (1.0 - kAirOxygenFraction) * h(Species::nitrogen, t);
         h_in += s.steam_fed * h_vapour + s.sweep_air * h_air_t;
         double h_air_feed = 0;
         if (s.sweep_air > 0)
             h_air_feed = kAirOxygenFraction * ideal_gas(Species::oxygen, t_feed).enthalpy +
                          (1.0 - kAirOxygenFraction) * ideal_gas(Species::nitrogen, t_feed).enthalpy;
         e.feed_heating = s.steam_fed * h_vapour - pure_water_in * feed_water_enthalpy(t_feed, p_liquid) -
-                         condensate * liquid(s.t_out[0]) +
-                         s.sweep_air * (h_air_t - h_air_feed);
+                         condensate * h_liquid_cool + s.sweep_air * (h_air_t - h_air_feed);
     }
     if (r.consumed[kNaCl] > 0 && s.solutions.count == 0)  // salt fed without its solution: the standard state
         h_in += r.consumed[kNaCl] * aqueous_solute(Solute::sodium_chloride, t_feed).enthalpy;
     if (r.consumed[kH2] > 0)  // standby: drawn back from the product line after its gas cooler
-        h_in += r.consumed[kH2] * ideal_gas(Species::hydrogen, s.t_out[0]).enthalpy;
+        h_in += r.consumed[kH2] * h(Species::hydrogen, t_cool);
 
     // What leaves them at the stack temperature.
     double h_out = 0;
-    for (int k = 0; k < 2; ++k) h_out += dry_gas_enthalpy(s.gas[k], s.nitrogen[k], t) + s.vapour_stack[k] * h_vapour;
-    if (s.drain > 0) h_out += s.drain * liquid(t);
+    for (int k = 0; k < 2; ++k) h_out += h_gas_stack[k] + s.vapour_stack[k] * h_vapour;
+    if (s.drain > 0) h_out += s.drain * h_liquid_stack();
     if (r.cathode[kNaOH] > 0)
         h_out += solution_enthalpy(AqueousSalt::sodium_hydroxide, s.caustic_water, r.cathode[kNaOH], t, p_liquid);
     for (int k = 0; k < s.solutions.count; ++k) {
@@ -175,22 +200,26 @@ Block::EnergyBalance Block::energy_balance(const PointResult& r, const PlantStre
         // A reaction table without enthalpy data: the electrical work above the given thermoneutral voltage,
         // N·I·(V − E_tn), its reaction taking liquid water at T; less what the water needs besides: warming the
         // make-up and condensate to T and evaporating the vapour the gases carry.
-        const double water_in = pure_water_in * feed_water_enthalpy(t_feed, p_liquid) + condensate * liquid(s.t_out[0]);
-        const double water_out = (s.vapour_stack[0] + s.vapour_stack[1]) * h_vapour + s.drain * liquid(t) +
-                                 r.consumed[kH2O] * liquid(t);
+        const double water_in = pure_water_in * feed_water_enthalpy(t_feed, p_liquid) + condensate * h_liquid_cool;
+        const double liquid_out = s.drain + r.consumed[kH2O];
+        const double water_out = (s.vapour_stack[0] + s.vapour_stack[1]) * h_vapour +
+                                 (liquid_out != 0 ? liquid_out * h_liquid_stack() : 0.0);
         e.released = r.stack_current * design_.cells() * (c.voltage - c.thermoneutral_voltage) - (water_out - water_in);
     } else {
         e.released = r.stack_power + h_in - h_out;
     }
     e.duty = e.released - e.loss;
 
-    // The gas coolers: each gas from the stack temperature to its outlet, less the condensate.
-    for (int k = 0; k < 2; ++k) {
-        if (s.dry[k] + s.vapour_stack[k] <= 0) continue;
-        e.gas_coolers += dry_gas_enthalpy(s.gas[k], s.nitrogen[k], t) + s.vapour_stack[k] * h_vapour -
-                         dry_gas_enthalpy(s.gas[k], s.nitrogen[k], s.t_out[k]) -
-                         s.vapour_out[k] * ideal_gas(Species::water_vapour, s.t_out[k]).enthalpy -
-                         s.condensate[k] * liquid(s.t_out[k]);
+    // The gas coolers: each gas from the stack temperature to its outlet, less the condensate (nothing when
+    // the stack is not warmer than the coolers).
+    if (t_cool < t) {
+        const double h_vapour_cool = h(Species::water_vapour, t_cool);
+        for (int k = 0; k < 2; ++k) {
+            if (s.dry[k] + s.vapour_stack[k] <= 0) continue;
+            e.gas_coolers += h_gas_stack[k] + s.vapour_stack[k] * h_vapour -
+                             dry_gas_enthalpy(s.gas[k], s.nitrogen[k], t_cool, h) - s.vapour_out[k] * h_vapour_cool -
+                             s.condensate[k] * h_liquid_cool;
+        }
     }
     return e;
 }

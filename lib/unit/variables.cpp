@@ -154,8 +154,9 @@ constexpr Entry kTable[] = {
     {par_gas_cooler_temperature, tunable("param.thermal.gas_cooler_temperature", "K",
         "outlet temperature of the gas coolers: the wet product gases are cooled to it (not below the stack "
         "temperature's own value when that is lower) and the water they condense returns to the water loop "
-        "(default 30 degC: cooling water at 20-25 degC with a 5-10 K approach, common practice; value from memory)")
-        .within(273.16, 373.15).starts(303.15).scaled(300).labelled("gas cooler outlet temperature").shown_in(display::degC)
+        "(default 30 degC: cooling water at 20-25 degC with a 5-10 K approach, common practice; value from memory; "
+        "not below 25 degC, where the gas property fits start)")
+        .within(298.15, 373.15).starts(303.15).scaled(300).labelled("gas cooler outlet temperature").shown_in(display::degC)
         .configured_by("$.plant.thermal.gas_cooler_temperature")},
 
     {cell_voltage, output("cell.voltage", "V", "cell voltage: reversible + activation (anode, cathode) + ohmic + concentration")

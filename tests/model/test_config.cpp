@@ -667,6 +667,12 @@ TEST(Config, ReactionSpeciesFromTheTableAndTheConfig) {
     bad = json;
     bad = swapped(bad, R"("product": "Zn", "electrons": 2)", R"("product": "Zn", "electrons": 1)");
     expect_config_error(bad, "$.reactions", "charges must sum to -1");
+    // A table without enthalpy data (no species, not water splitting) needs its thermoneutral voltage.
+    const std::string bare = std::string(R"({ "technology": "custom", )") + kMinimalTail + R"(, "reactions": {
+        "anode": [ { "name": "chlorine", "product": "Cl2", "standard_potential": 1.358, "activation_energy": 3e4 } ],
+        "cathode": [ { "name": "zinc", "product": "Zn", "standard_potential": -0.762, "activation_energy": 3e4 } ] })";
+    expect_config_error(bare + " }", "$.reactions", "give every reaction its species, or the thermoneutral voltage");
+    EXPECT_NO_THROW(parse_config(bare + R"(, "cell": { "thermoneutral_voltage": 2.3 } })"));
     // With species everywhere, a thermoneutral voltage given as well is refused (two sources of one heat).
     const std::string both = std::string(R"({ "technology": "custom", )") + kMinimalTail + ", " + kSpeciesReactions +
                              R"(, "cell": { "thermoneutral_voltage": 2.2 } })";
