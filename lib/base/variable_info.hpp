@@ -39,6 +39,7 @@ constexpr DisplayUnit kWh_per_kg{"kWh/kg", 1.0 / 3.6e6, 0.0};
 constexpr DisplayUnit kWh_per_t{"kWh/t", 1.0 / 3.6e3, 0.0};
 constexpr DisplayUnit percent{"%", 100.0, 0.0};
 constexpr DisplayUnit kg_per_kg{"kg/kg", 1.0, 0.0};
+constexpr DisplayUnit t_per_t{"t/t", 1.0, 0.0};
 constexpr DisplayUnit ohm_cm2{"ohm cm2", 1e4, 0.0};
 constexpr DisplayUnit uV_per_h{"uV/h", 1e6, 0.0};
 }  // namespace display

@@ -493,7 +493,7 @@ std::vector<double> custom_product_rates(const CustomCellSpec& spec, const CellR
     return rates;
 }
 
-std::unique_ptr<Cell> make_custom_cell(const CustomCellSpec& spec) {
+CustomCellSpec complete_custom_spec(const CustomCellSpec& spec) {
     if (spec.anode.empty()) throw Error(ErrorKind::invalid_argument, "custom cell: the anode has no reactions");
     if (spec.cathode.empty()) throw Error(ErrorKind::invalid_argument, "custom cell: the cathode has no reactions");
     if (spec.anode.size() > kMaxReactions || spec.cathode.size() > kMaxReactions)
@@ -565,7 +565,11 @@ std::unique_ptr<Cell> make_custom_cell(const CustomCellSpec& spec) {
                 if (!(h.product_molar_mass > 0.0) && h.product == species_name(gas))
                     h.product_molar_mass = species_molar_mass(gas);
         }
-    return std::make_unique<CustomCell>(std::move(built));
+    return built;
+}
+
+std::unique_ptr<Cell> make_custom_cell(const CustomCellSpec& spec) {
+    return std::make_unique<CustomCell>(complete_custom_spec(spec));
 }
 
 bool water_only_table(const CustomCellSpec& spec) {

@@ -77,6 +77,10 @@ struct CustomCellSpec {
 /// ASR >= 0, a sane envelope) and builds the cell; errors name the electrode, reaction and field.
 std::unique_ptr<Cell> make_custom_cell(const CustomCellSpec& spec);
 
+/// The same checks, and the table with its defaults filled in (the water activity; a product's molar
+/// mass from its species, or for H2, O2, Cl2): what the cell is built from.
+CustomCellSpec complete_custom_spec(const CustomCellSpec& spec);
+
 /// Current through one reaction k at electrode potential Φ relative to its equilibrium
 /// potential E_k, in the electrolysis direction (η = Φ − E_k at the anode, E_k − Φ at the
 /// cathode), Butler–Volmer with the reactant's mass-transport limit in the exact form

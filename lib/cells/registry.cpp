@@ -68,10 +68,12 @@ std::vector<SummaryGroup> brine_summary() {
             voltage_breakdown(),
             stacks_and_plant(),
             {"Products and feeds",
-             {"product.chlorine", "product.caustic", "product.caustic_solution", "product.hydrogen", "feed.salt",
-              "feed.water"}},
-            {"Efficiency and heat",
-             {"cell.caustic_efficiency", "cell.chlorine_efficiency", "perf.specific_energy_chlorine", "heat.duty"}},
+             {"product.chlorine", "product.caustic", "product.caustic_solution", "feed.salt", "feed.water"}},
+            {"Per tonne of chlorine and of caustic",
+             {"perf.specific_energy_chlorine", "perf.specific_energy_caustic", "perf.salt_per_chlorine",
+              "perf.salt_per_caustic", "perf.water_per_chlorine", "perf.water_per_caustic"}},
+            {"Efficiency and heat", {"cell.chlorine_efficiency", "cell.caustic_efficiency", "heat.duty"}},
+            {"Hydrogen (by-product)", {"product.hydrogen"}},
             {"Gas purity", {"gas.o2_in_cl2", "gas.h2_in_o2"}},
             {"Brine loop", {}, true}};
 }
@@ -80,8 +82,10 @@ std::vector<SummaryGroup> custom_summary() {
     return {operating_point(),
             voltage_breakdown(),
             stacks_and_plant(),
+            {"Main product", {"product.main", "cell.main_product_efficiency", "perf.specific_energy_main"}},
             {"Reactions (share of each electrode's current, product made)", {}, true},
-            {"Hydrogen by-product and heat", {"product.hydrogen", "cell.faraday_efficiency", "feed.water", "heat.duty"}}};
+            {"Hydrogen (a by-product unless it is the main product), water and heat",
+             {"product.hydrogen", "feed.water", "heat.duty"}}};
 }
 
 }  // namespace

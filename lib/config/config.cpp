@@ -65,17 +65,26 @@ void check_range(double x, double lo, double hi, bool lo_open, const char* unit,
     if (x > hi) fail(path, fmt::format("{} is above the upper limit {}", quantity_text(x, unit), quantity_text(hi, unit)));
 }
 
+/// A count: an integral JSON number, or a string holding one ("100"), as a quantity may be a
+/// string holding a plain number; a count takes no unit.
 int count_value(const json::value& v, double lo, double hi, const std::string& path) {
     double x = 0;
     switch (v.kind()) {
         case json::kind::int64: x = static_cast<double>(v.get_int64()); break;
         case json::kind::uint64: x = static_cast<double>(v.get_uint64()); break;
-        case json::kind::double_:
-            x = v.get_double();
-            if (!std::isfinite(x) || x != std::floor(x)) fail(path, "expected an integer, got " + got(v));
+        case json::kind::double_: x = v.get_double(); break;
+        case json::kind::string: {
+            const auto& s = v.get_string();
+            try {
+                x = parse_plain_number(std::string_view(s.data(), s.size()));
+            } catch (const Error&) {
+                fail(path, "expected an integer (a count is a plain number and takes no unit), got " + got(v));
+            }
             break;
+        }
         default: fail(path, "expected an integer, got " + got(v));
     }
+    if (!std::isfinite(x) || x != std::floor(x)) fail(path, "expected an integer, got " + got(v));
     check_range(x, lo, hi, false, nullptr, path);
     return static_cast<int>(x);
 }
@@ -353,8 +362,9 @@ void build_reaction_cell(const json::value* cell, const json::value* reactions, 
         fail("$.cell", fmt::format("pressure_min {:g} Pa must be below pressure_max {:g} Pa", e.pressure_min,
                                    e.pressure_max));
     try {
-        d.cell = make_custom_cell(spec);
-        d.custom = std::make_shared<const CustomCellSpec>(std::move(spec));
+        auto complete = std::make_shared<const CustomCellSpec>(complete_custom_spec(spec));
+        d.cell = make_custom_cell(*complete);
+        d.custom = std::move(complete);
     } catch (const Error& e) {
         fail("$.reactions", e.what());
     }

@@ -386,9 +386,12 @@ std::string_view trim(std::string_view s) {
 
 double apply(double value, const Unit& from, std::string_view from_text, const Unit& to, std::string_view to_text) {
     if (from.dimension != to.dimension) {
+        // "C" is the coulomb; written for a temperature it is nearly always meant as degrees Celsius.
+        const bool celsius_meant = from_text == "C" && to.dimension == kTemperature;
         throw Error(ErrorKind::config,
-                    fmt::format("expected a quantity in {}, got '{}' ({} instead of {})", to_text, shown(from_text),
-                                dimension_text(from.dimension), dimension_text(to.dimension)));
+                    fmt::format("expected a quantity in {}, got '{}' ({} instead of {}){}", to_text, shown(from_text),
+                                dimension_text(from.dimension), dimension_text(to.dimension),
+                                celsius_meant ? "; did you mean degC?" : ""));
     }
     // value_to = (value · f_from + offset) / f_to with f = numerator/denominator · 10^e; the
     // rational parts are combined first so that exact conversions stay exact.
@@ -462,8 +465,15 @@ double convert_unit(double value, std::string_view from, std::string_view to) {
     return apply(value, f, trim(from), t, trim(to));
 }
 
-double parse_quantity(std::string_view text, std::string_view expected_unit) {
-    const auto t = trim(text);
+namespace {
+
+struct LeadingNumber {
+    double value;
+    std::string_view rest;  // the text after the number, trimmed
+};
+
+// The number at the start of a trimmed quantity text; throws config errors naming the text.
+LeadingNumber leading_number(std::string_view t) {
     std::string_view rest = t;
     bool negative = false;
     if (!rest.empty() && (rest.front() == '+' || rest.front() == '-')) {
@@ -481,7 +491,24 @@ double parse_quantity(std::string_view text, std::string_view expected_unit) {
     if (negative) number = -number;
     if (!std::isfinite(number))
         throw Error(ErrorKind::config, fmt::format("'{}' is not a finite number", shown(t)));
-    const auto unit_text = trim(rest.substr(static_cast<std::size_t>(r.ptr - rest.data())));
+    return {number, trim(rest.substr(static_cast<std::size_t>(r.ptr - rest.data())))};
+}
+
+}  // namespace
+
+double parse_plain_number(std::string_view text) {
+    const auto t = trim(text);
+    const LeadingNumber n = leading_number(t);
+    if (!n.rest.empty())
+        throw Error(ErrorKind::config, fmt::format("expected a plain number, got '{}'", shown(t)));
+    return n.value;
+}
+
+double parse_quantity(std::string_view text, std::string_view expected_unit) {
+    const auto t = trim(text);
+    const LeadingNumber n = leading_number(t);
+    const double number = n.value;
+    const auto unit_text = n.rest;
     if (unit_text.empty()) return number;  // a bare number is already in the expected unit
     Unit to;
     try {

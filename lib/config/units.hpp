@@ -63,6 +63,10 @@ double convert_unit(double value, std::string_view from, std::string_view to);
 /// number or result is an error.
 double parse_quantity(std::string_view text, std::string_view expected_unit);
 
+/// Parses a plain number with optional surrounding white space ("100", " 1e2 "), no unit.
+/// Throws ErrorKind::config for anything else, a non-finite number included.
+double parse_plain_number(std::string_view text);
+
 /// Markdown list of the accepted unit symbols and prefixes, generated from the parser's tables.
 std::string units_markdown();
 

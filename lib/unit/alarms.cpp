@@ -38,12 +38,16 @@ void Block::fill_alarms(const PointResult& r) {
 }
 
 std::string Block::alarm_message() const {
+    // "solved with alarms: a; b" (the labels, separated, nothing after the last).
     std::string m = "solved with alarms:";
+    const char* separator = " ";
     for (int a = alarm_first; a <= alarm_last; ++a) {
         if (!(v_[static_cast<std::size_t>(a)] > 0)) continue;
         // The trip level implies the warning level: name the trip only.
         if (a == alarm_h2_in_o2_warning && v_[alarm_h2_in_o2_trip] > 0) continue;
-        m += std::string(" ") + variable_info(static_cast<Var>(a)).label + ";";
+        m += separator;
+        m += variable_info(static_cast<Var>(a)).label;
+        separator = "; ";
     }
     return m;
 }

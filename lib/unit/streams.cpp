@@ -14,6 +14,7 @@
 #include <cmath>
 #include <limits>
 
+#include "cells/custom.hpp"
 #include "electrochem/electrolyte.hpp"
 #include "thermo/constants.hpp"
 #include "thermo/reaction.hpp"
@@ -67,6 +68,31 @@ double solution_enthalpy(AqueousSalt salt, double water, double solute, double t
     return h_water +
            solute * (aqueous_solute(standard, t).enthalpy + aqueous_salt_relative_enthalpies(salt, molality, t).apparent(molality));
 }
+
+bool makes_water_gas(const HalfReaction& h) { return h.product == "H2" || h.product == "O2"; }
+
+// The main product of a cell built from a reaction table (the rule of product.main, variables.cpp):
+// its index among the result's shares, anode reactions first, then the cathode's.
+std::size_t main_reaction(const CustomCellSpec& spec) {
+    const std::size_t na = spec.anode.size();
+    for (std::size_t k = 0; k < spec.cathode.size(); ++k)
+        if (!makes_water_gas(spec.cathode[k])) return na + k;
+    for (std::size_t k = 0; k < na; ++k)
+        if (!makes_water_gas(spec.anode[k])) return k;
+    return na;
+}
+
+// kg/mol of a reaction's product: as the table gives it, else the model's own for the gases it
+// knows (IUPAC atomic weights, thermo/constants.hpp); NaN when neither.
+double product_molar_mass(const HalfReaction& h) {
+    if (h.product_molar_mass > 0) return h.product_molar_mass;
+    if (h.product == "H2") return molar_mass::H2;
+    if (h.product == "O2") return molar_mass::O2;
+    if (h.product == "Cl2") return molar_mass::Cl2;
+    return kNaN;
+}
+
+double per(double numerator, double denominator) { return denominator > 0 ? numerator / denominator : kNaN; }
 }  // namespace
 
 double Block::gas_enthalpy(Species species, double t) const {
@@ -308,6 +334,25 @@ void Block::fill_outputs(const PointResult& r) {
     v_[perf_water_per_hydrogen] = makes_h2 ? v_[feed_water] / h2 : kNaN;
     v_[perf_specific_energy_chlorine] = v_[product_chlorine] > 0 ? r.stack_power / v_[product_chlorine] : kNaN;
     v_[perf_load_fraction] = c.current_density / v_[par_rated_current_density];
+
+    // Brine plants: the trade's figures per tonne of chlorine and of caustic (100 % NaOH).
+    const double cl2 = v_[product_chlorine], naoh_kg = v_[product_caustic];
+    v_[perf_specific_energy_caustic] = per(r.stack_power, naoh_kg);
+    v_[perf_salt_per_chlorine] = per(v_[feed_salt], cl2);
+    v_[perf_water_per_chlorine] = per(v_[feed_water], cl2);
+    v_[perf_salt_per_caustic] = per(v_[feed_salt], naoh_kg);
+    v_[perf_water_per_caustic] = per(v_[feed_water], naoh_kg);
+
+    // Cells built from a reaction table: their main product, its current efficiency and energy.
+    if (design_.custom) {
+        const CustomCellSpec& spec = *design_.custom;
+        const std::size_t k = main_reaction(spec), na = spec.anode.size();
+        const HalfReaction& h = k < na ? spec.anode[k] : spec.cathode[k - na];
+        const double share = c.reaction_current_efficiency[k];
+        v_[cell_main_product_efficiency] = share;
+        v_[product_main] = custom_product_rate(h, share, c.current_density) * r.area_total * product_molar_mass(h);
+        v_[perf_specific_energy_main] = per(r.stack_power, v_[product_main]);
+    }
 
     if (own_count_ > 0) cell_->fill_own_outputs(c, s.flows, v_.data() + kVarCount);
 }

@@ -35,7 +35,14 @@ constexpr VariableInfo fraction(const char* name, const char* description) {
     return output(name, "mol/mol", description).within(0, 1).scaled(0.1).shown_in(display::percent);
 }
 
-constexpr uint32_t H2 = kMakesHydrogen, O2 = kMakesOxygen, BRINE = kBrineProducts, STEAM = kSteamFeed;
+constexpr uint32_t H2 = kMakesHydrogen, O2 = kMakesOxygen, BRINE = kBrineProducts, TABLE = kReactionTable,
+                   STEAM = kSteamFeed;
+
+// The main product of a cell built from a reaction table (product.main and the figures per kg of
+// it); the rule is also in docs/cells-brine-custom.md.
+#define ELY_MAIN_PRODUCT_RULE                                                                        \
+    "the product of the first reaction, cathode list first, that makes neither hydrogen nor oxygen; " \
+    "when every reaction makes one of them, the first cathode reaction's product"
 
 struct Entry {
     Var var;
@@ -183,6 +190,9 @@ constexpr Entry kTable[] = {
         .needing(BRINE).labelled("caustic current efficiency").shown_in(display::percent)},
     {cell_chlorine_efficiency, output("cell.chlorine_efficiency", "1", "chlorine current efficiency")
         .needing(BRINE).labelled("chlorine current efficiency").shown_in(display::percent)},
+    {cell_main_product_efficiency, output("cell.main_product_efficiency", "1",
+        "current efficiency of the main product (its share of its electrode's current); main product: " ELY_MAIN_PRODUCT_RULE)
+        .needing(TABLE).labelled("current efficiency, main product").shown_in(display::percent)},
 
     {stack_current, output("stack.current", "A", "DC current of all stacks together (each stack carries its share)")
         .scaled(1e4).labelled("DC current (all stacks)").shown_in(display::kA)},
@@ -209,6 +219,9 @@ constexpr Entry kTable[] = {
         .needing(BRINE).scaled(1e-1).labelled("caustic (100 % NaOH)").shown_in(display::kg_per_h)},
     {product_caustic_solution, output("product.caustic_solution", "kg/s", "caustic solution leaving at its configured strength")
         .needing(BRINE).scaled(1e-1).labelled("caustic solution").shown_in(display::kg_per_h)},
+    {product_main, output("product.main", "kg/s",
+        "main product made, plant total (NaN when its reaction gives no product_molar_mass); main product: " ELY_MAIN_PRODUCT_RULE)
+        .needing(TABLE).scaled(1e-2).labelled("main product made").shown_in(display::kg_per_h)},
     {feed_water, output("feed.water", "kg/s",
         "make-up water the plant takes in at the feed temperature: the water reacted + the vapour still in the gases "
         "after their gas coolers (stream.dryer_loss and the vented anode gas's) + water drained (stream.drain) + the "
@@ -307,6 +320,19 @@ constexpr Entry kTable[] = {
         .scaled(0.5).labelled("load (of rated current density)").shown_in(display::percent)},
     {perf_water_per_hydrogen, output("perf.water_per_hydrogen", "1", "make-up water per hydrogen product, kg/kg")
         .needing(H2).scaled(9).labelled("water per hydrogen").shown_in(display::kg_per_kg)},
+    {perf_specific_energy_caustic, output("perf.specific_energy_caustic", "J/kg", "DC stack energy per kg of caustic product (100 % NaOH)")
+        .needing(BRINE).scaled(9e6).labelled("DC energy per tonne of caustic (100 % NaOH)").shown_in(display::kWh_per_t)},
+    {perf_salt_per_chlorine, output("perf.salt_per_chlorine", "1", "salt consumed per chlorine product, kg/kg (t/t)")
+        .needing(BRINE).scaled(1.7).labelled("salt per tonne of chlorine").shown_in(display::t_per_t)},
+    {perf_water_per_chlorine, output("perf.water_per_chlorine", "1", "make-up water per chlorine product, kg/kg (t/t)")
+        .needing(BRINE).scaled(3).labelled("make-up water per tonne of chlorine").shown_in(display::t_per_t)},
+    {perf_salt_per_caustic, output("perf.salt_per_caustic", "1", "salt consumed per caustic product (100 % NaOH), kg/kg (t/t)")
+        .needing(BRINE).scaled(1.5).labelled("salt per tonne of caustic").shown_in(display::t_per_t)},
+    {perf_water_per_caustic, output("perf.water_per_caustic", "1", "make-up water per caustic product (100 % NaOH), kg/kg (t/t)")
+        .needing(BRINE).scaled(3).labelled("make-up water per tonne of caustic").shown_in(display::t_per_t)},
+    {perf_specific_energy_main, output("perf.specific_energy_main", "J/kg",
+        "DC stack energy per kg of the main product (NaN without its product_molar_mass); main product: " ELY_MAIN_PRODUCT_RULE)
+        .needing(TABLE).scaled(1e7).labelled("DC energy per kg of main product").shown_in(display::kWh_per_kg)},
 
     {alarm_h2_in_o2_warning, alarm("alarm.h2_in_o2_warning", "hydrogen in the anode gas at or above the warning level",
         "1 when hydrogen in the anode gas is at or above the warning level")},
@@ -323,6 +349,7 @@ constexpr Entry kTable[] = {
     {alarm_any, alarm("alarm.any", "an alarm is raised", "1 when any alarm above is raised")},
 };
 // clang-format on
+#undef ELY_MAIN_PRODUCT_RULE
 
 constexpr bool in_enum_order() {
     for (int i = 0; i < static_cast<int>(std::size(kTable)); ++i)

@@ -40,13 +40,13 @@ enum Var : int {
     // cell
     cell_voltage, cell_reversible_voltage, cell_thermoneutral_voltage, cell_activation_anode,
     cell_activation_cathode, cell_ohmic, cell_concentration, cell_degradation, cell_current_density,
-    cell_faraday_efficiency, cell_caustic_efficiency, cell_chlorine_efficiency,
+    cell_faraday_efficiency, cell_caustic_efficiency, cell_chlorine_efficiency, cell_main_product_efficiency,
     // stack and plant
     stack_current, stack_voltage, stack_power, plant_power,
     plant_rectifier_loss, plant_rectifier_efficiency, plant_auxiliary_power,
     // products and feeds (plant totals)
     product_hydrogen, product_oxygen, product_chlorine, product_caustic, product_caustic_solution,
-    feed_water, feed_salt, feed_hydrogen, feed_sweep_air,
+    product_main, feed_water, feed_salt, feed_hydrogen, feed_sweep_air,
     // streams
     stream_cathode_mass_flow, stream_cathode_temperature, stream_cathode_pressure, stream_cathode_x_h2,
     stream_cathode_x_o2, stream_cathode_x_h2o,
@@ -60,6 +60,8 @@ enum Var : int {
     // performance
     perf_specific_energy, perf_specific_energy_plant, perf_efficiency_hhv, perf_efficiency_lhv,
     perf_specific_energy_chlorine, perf_load_fraction, perf_water_per_hydrogen,
+    perf_specific_energy_caustic, perf_salt_per_chlorine, perf_water_per_chlorine, perf_salt_per_caustic,
+    perf_water_per_caustic, perf_specific_energy_main,
     // alarms (0 or 1): alarm_first .. alarm_last, then their summary
     alarm_h2_in_o2_warning, alarm_h2_in_o2_trip, alarm_temperature_high, alarm_current_density_high,
     alarm_load_low, alarm_extrapolated, alarm_any,

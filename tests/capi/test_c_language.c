@@ -155,3 +155,34 @@ int ely_c_test_life_cycle(const char* config_json, char* why, size_t why_size) {
     ely_block_destroy(NULL);
     return 0;
 }
+
+/* ely_parse_quantity: the plant description's quantities from C. Exact values by the unit
+ * definitions (SI Brochure, 9th ed.: 1 bar = 1e5 Pa, t/degC = T/K - 273.15; prefixes). */
+int ely_c_test_parse_quantity(char* why, size_t why_size) {
+    double v = 0;
+    CHECK(ely_parse_quantity("2 A/cm2", "A/m2", &v) == ELY_OK && v == 2e4);
+    CHECK(ely_parse_quantity("30 bar", "Pa", &v) == ELY_OK && v == 3e6);
+    CHECK(ely_parse_quantity(" 1.5 MW ", "kW", &v) == ELY_OK && v == 1500);
+    CHECK(ely_parse_quantity("25 %", "1", &v) == ELY_OK && v == 0.25);
+    CHECK(ely_parse_quantity("42", "K", &v) == ELY_OK && v == 42);            /* bare: already in K */
+    CHECK(ely_parse_quantity("80 degC", "K", &v) == ELY_OK && fabs(v - 353.15) < 1e-12);
+    CHECK(ely_parse_quantity("2 d", "h", &v) == ELY_OK && v == 48);
+    CHECK(strcmp(ely_last_error(), "") == 0);
+
+    /* Failures write nothing and name the problem. */
+    v = -7;
+    CHECK(ely_parse_quantity("80 C", "K", &v) == ELY_ERR_INVALID_ARGUMENT && v == -7);
+    CHECK(strstr(ely_last_error(), "did you mean degC?") != NULL);
+    CHECK(ely_parse_quantity("1 bar", "K", &v) == ELY_ERR_INVALID_ARGUMENT && v == -7);
+    CHECK(strstr(ely_last_error(), "expected a quantity in K, got 'bar'") != NULL);
+    CHECK(ely_parse_quantity("3 furlongs", "m", &v) == ELY_ERR_INVALID_ARGUMENT && v == -7);
+    CHECK(strstr(ely_last_error(), "unit 'furlongs' is not known") != NULL);
+    CHECK(ely_parse_quantity("nan K", "K", &v) == ELY_ERR_INVALID_ARGUMENT && v == -7);
+    CHECK(ely_parse_quantity("", "K", &v) == ELY_ERR_INVALID_ARGUMENT && v == -7);
+    CHECK(ely_parse_quantity("80 degC", "degC", &v) == ELY_ERR_INVALID_ARGUMENT && v == -7);
+    CHECK(strstr(ely_last_error(), "has an offset") != NULL);
+    CHECK(ely_parse_quantity(NULL, "K", &v) == ELY_ERR_INVALID_ARGUMENT && v == -7);
+    CHECK(ely_parse_quantity("1 K", NULL, &v) == ELY_ERR_INVALID_ARGUMENT && v == -7);
+    CHECK(ely_parse_quantity("1 K", "K", NULL) == ELY_ERR_INVALID_ARGUMENT);
+    return 0;
+}

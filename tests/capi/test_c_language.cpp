@@ -13,3 +13,8 @@ TEST(CLanguage, LifeCycleFromC) {
     const std::string json = capi_test::minimal_config("pem");
     EXPECT_EQ(ely_c_test_life_cycle(json.c_str(), why, sizeof why), 0) << why;
 }
+
+TEST(CLanguage, ParseQuantityFromC) {
+    char why[512] = "";
+    EXPECT_EQ(ely_c_test_parse_quantity(why, sizeof why), 0) << why;
+}

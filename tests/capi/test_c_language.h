@@ -7,6 +7,7 @@ extern "C" {
 #endif
 int ely_c_test_status_values(char* why, size_t why_size);
 int ely_c_test_life_cycle(const char* config_json, char* why, size_t why_size);
+int ely_c_test_parse_quantity(char* why, size_t why_size);
 #ifdef __cplusplus
 }
 #endif

@@ -24,7 +24,7 @@ with open(sys.argv[2], "w") as f:
     f.write("# made by the model itself, with scatter (test data)\n")
     f.write("in.current_density [A/cm2], in.temperature [degC], cell.voltage [mV]\n")
     for i, r in enumerate(rows):
-        f.write("%g, 80, %.4f\n" % (float(r["in.current_density"]) / 1e4, float(r["cell.voltage"]) * 1e3 + (0.7 if i % 2 else -0.7)))
+        f.write("%g, 80, %.4f\n" % (float(r["in.current_density [A/m2]"]) / 1e4, float(r["cell.voltage [V]"]) * 1e3 + (0.7 if i % 2 else -0.7)))
 PY
 }
 

@@ -26,6 +26,7 @@
 
 using namespace ely;
 using ::testing::HasSubstr;
+using ::testing::Not;
 using ::testing::StartsWith;
 
 namespace {
@@ -176,6 +177,16 @@ TEST(Units, DimensionMismatch) {
     EXPECT_THAT(m, HasSubstr("expected a quantity in mol/s"));
     m = error_of([] { q("5 %", "m"); }, ErrorKind::config);
     EXPECT_THAT(m, HasSubstr("got '%'"));
+}
+
+// "C" is the coulomb: given for a temperature the message keeps the dimensions and hints at degC;
+// a coulomb where a charge is expected stays valid, and other mismatches get no hint.
+TEST(Units, CoulombForATemperatureHintsAtDegC) {
+    EXPECT_EQ(error_of([] { q("80 C", "K"); }, ErrorKind::config),
+              "expected a quantity in K, got 'C' (s A instead of K); did you mean degC?");
+    EXPECT_EQ(q("3600 C", "A h"), 1.0);
+    EXPECT_THAT(error_of([] { q("80 C", "Pa"); }, ErrorKind::config), Not(HasSubstr("degC")));
+    EXPECT_THAT(error_of([] { q("80 bar", "K"); }, ErrorKind::config), Not(HasSubstr("degC")));
 }
 
 TEST(Units, ErrorsNameTheUnit) {
@@ -349,6 +360,18 @@ TEST(Config, CountsAcceptIntegralNumbers) {
     EXPECT_EQ(d.stacks(), 2);
 }
 
+// Counts follow the rule of quantities: a string holding a plain number reads like the number.
+TEST(Config, CountsGivenAsStringsOfDigits) {
+    const std::string json = R"({ "technology": "pem", "stack": { "cells": "100", "active_area": 0.1, "stacks": " 2 " },
+        "operating": { "spec": "current_density" } })";
+    const PlantDesign d = parse_config(json);
+    EXPECT_EQ(d.cells(), 100);
+    EXPECT_EQ(d.stacks(), 2);
+    expect_config_error(R"({ "technology": "pem", "stack": { "cells": "0", "active_area": 0.1 },
+        "operating": { "spec": "current_density" } })",
+                        "$.stack.cells", "below the lower limit");
+}
+
 TEST(Config, CellParametersTakeUnits) {
     // Data-driven over the real parameter table: every key accepts its value in its own SI
     // unit, as a number and as a string, and the cell is still built.
@@ -428,9 +451,13 @@ TEST(Config, WrongTypes) {
     expect_config_error(R"({ "technology": "pem", "stack": { "cells": 100, "active_area": [0.1] },
         "operating": { "spec": "current_density" } })",
                         "$.stack.active_area", "expected a number or a string with a unit, got an array");
-    expect_config_error(R"({ "technology": "pem", "stack": { "cells": "100", "active_area": 0.1 },
+    expect_config_error(R"({ "technology": "pem", "stack": { "cells": "100 cells", "active_area": 0.1 },
         "operating": { "spec": "current_density" } })",
-                        "$.stack.cells", "expected an integer, got a string");
+                        "$.stack.cells",
+                        "expected an integer (a count is a plain number and takes no unit), got a string (\"100 cells\")");
+    expect_config_error(R"({ "technology": "pem", "stack": { "cells": "2.5", "active_area": 0.1 },
+        "operating": { "spec": "current_density" } })",
+                        "$.stack.cells", "expected an integer, got a string (\"2.5\")");
     expect_config_error(R"({ "technology": "pem", "stack": 5, "operating": { "spec": "current_density" } })", "$.stack",
                         "expected an object, got 5");
     expect_config_error(pem_with(R"("plant": { "drag_water_returned": "yes" })"), "$.plant.drag_water_returned",

@@ -28,6 +28,7 @@
 
 using namespace ely;
 using ::testing::HasSubstr;
+using ely::test::rel;
 using ely::test::source_path;
 
 namespace {
@@ -828,6 +829,10 @@ TEST_P(UnitAlarms, EachAlarmIsRaisedAndNamed) {
     EXPECT_EQ(p.get(c.alarm), 1.0);
     EXPECT_EQ(p.get("alarm.any"), 1.0);
     EXPECT_THAT(outcome.message, HasSubstr(p.block.variable(p.block.find(c.alarm)).label));
+    // "solved with alarms: a; b": labels separated by "; ", nothing after the last one.
+    EXPECT_THAT(outcome.message, ::testing::StartsWith("solved with alarms: "));
+    EXPECT_NE(outcome.message.back(), ';') << outcome.message;
+    EXPECT_EQ(outcome.message.find(";;"), std::string::npos) << outcome.message;
     for (int a = alarm_first; a <= alarm_last; ++a) {
         const char* other = variable_info(Var(a)).name;
         const bool implied = std::string(c.alarm) == "alarm.h2_in_o2_trip" && std::string(other) == "alarm.h2_in_o2_warning";
@@ -1318,6 +1323,85 @@ TEST(UnitCustom, WetGasesAtOrAboveSaturationAreRefusedAndFlowsNeverGoNegative) {
     }
     EXPECT_GT(solved, 1500);
     EXPECT_GT(refused, 20);
+}
+
+// The main product of a cell built from a reaction table: the first reaction, cathode list first,
+// that makes neither hydrogen nor oxygen. Its rate is Faraday's law on its share of the current
+// (m = share·I·N·M/(nF)), computed here from the block's current and the table's molar mass.
+TEST(UnitCustom, MainProductIsTheFirstReactionNotMakingHydrogenOrOxygen) {
+    json::object zinc = json::parse(read_file(source_path("examples/zinc-electrowinning.json"))).as_object();
+    const auto check_zinc = [](const Probe& p) {
+        const double zn_share = p.get("reaction.cathode_1.current_efficiency");
+        EXPECT_EQ(p.get("cell.main_product_efficiency"), zn_share);
+        EXPECT_LT(p.get("cell.main_product_efficiency"), 0.99);  // hydrogen takes a share
+        EXPECT_GT(p.get("cell.main_product_efficiency"), p.get("cell.faraday_efficiency"));
+        const double current_all_cells = p.get("stack.current") * 40;  // 40 cells, one stack
+        EXPECT_LT(rel(p.get("product.main"), zn_share * current_all_cells * 65.38e-3 / (2 * kFaraday)), 1e-12);
+        EXPECT_LT(rel(p.get("perf.specific_energy_main") * p.get("product.main"), p.get("stack.power")), 1e-12);
+    };
+    {
+        Probe p(json::serialize(zinc));
+        p.block.solve();
+        check_zinc(p);
+    }
+    {
+        // Hydrogen listed first at the cathode: zinc is still the main product.
+        json::array& cathode = zinc["reactions"].as_object()["cathode"].as_array();
+        std::swap(cathode[0], cathode[1]);
+        Probe p(json::serialize(zinc));
+        p.block.solve();
+        EXPECT_EQ(p.get("cell.main_product_efficiency"), p.get("reaction.cathode_2.current_efficiency"));
+        EXPECT_LT(rel(p.get("product.main"), p.get("reaction.cathode_2.product_rate")), 1e-12);
+    }
+    {
+        // Only water's gases: the first cathode reaction's hydrogen is the main product.
+        Probe p(plant("custom"));
+        p.block.solve();
+        EXPECT_EQ(p.get("product.main"), p.get("product.hydrogen"));
+        EXPECT_EQ(p.get("cell.main_product_efficiency"), p.get("cell.faraday_efficiency"));
+    }
+    {
+        // Chlorine at the anode, hydrogen at the cathode: the anode's chlorine (E° 1.35827 V, CRC
+        // electrochemical series) is the main product, its molar mass the model's own.
+        Probe p(plant("custom", {R"({"reactions": {"anode": [{"name": "chlorine evolution", "product": "Cl2",
+            "electrons": 2, "standard_potential": "1.35827 V", "activation_energy": "40 kJ/mol"}]},
+            "cell": {"thermoneutral_voltage": "2.2 V"}})"}));  // E_tn only sets the heat, not the rates
+        p.block.solve();
+        const double current_all_cells = p.get("stack.current") * 20;  // 20 cells per stack
+        EXPECT_EQ(p.get("cell.main_product_efficiency"), p.get("reaction.anode_1.current_efficiency"));
+        EXPECT_LT(rel(p.get("product.main"), current_all_cells * 2 * 35.45e-3 / (2 * kFaraday)), 1e-12);
+    }
+}
+
+// A brine plant's figures per tonne against the stoichiometry of 2 NaCl + 2 H2O -> Cl2 + 2 NaOH + H2
+// with the cell's current efficiencies (IUPAC standard atomic weights, abridged: Na 22.98976928,
+// Cl 35.45, O 15.999, H 1.008): 1.128 t of NaOH per t of Cl2 at equal efficiencies (the trade's
+// "electrochemical unit", common practice) and 1.648 t of salt per t of Cl2.
+TEST(UnitBrine, FiguresPerTonneOfChlorineAndOfCaustic) {
+    Probe p(plant("brine"));
+    p.block.solve();
+    const double m_nacl = 22.98976928 + 35.45, m_naoh = 22.98976928 + 15.999 + 1.008, m_cl2 = 2 * 35.45;
+    const double eff_ratio = p.get("cell.caustic_efficiency") / p.get("cell.chlorine_efficiency");
+    const double caustic_per_chlorine = eff_ratio * 2 * m_naoh / m_cl2;
+    EXPECT_NEAR(2 * m_naoh / m_cl2, 1.128, 5e-4);
+    EXPECT_LT(rel(p.get("perf.specific_energy_chlorine") / p.get("perf.specific_energy_caustic"), caustic_per_chlorine),
+              1e-12);
+    EXPECT_LT(rel(p.get("perf.salt_per_chlorine"), eff_ratio * 2 * m_nacl / m_cl2), 1e-12);
+    EXPECT_LT(rel(p.get("perf.salt_per_caustic"), m_nacl / m_naoh), 1e-12);
+    EXPECT_LT(rel(p.get("perf.water_per_chlorine") / p.get("perf.water_per_caustic"), caustic_per_chlorine), 1e-12);
+    // Energy per tonne of chlorine by Faraday's law from the cell voltage: V·2F/(eff·M(Cl2)).
+    EXPECT_LT(rel(p.get("perf.specific_energy_chlorine"),
+                  p.get("cell.voltage") * 2 * kFaraday / (p.get("cell.chlorine_efficiency") * m_cl2 * 1e-3)),
+              1e-12);
+    // Hydrogen is shown as a by-product; the figures per kg of hydrogen are not the brine plant's.
+    for (int32_t i = 0; i < p.block.variable_count(); ++i) {
+        const std::string name = p.block.variable(i).name;
+        if (name == "product.hydrogen") {
+            EXPECT_THAT(p.block.summary_group(i), HasSubstr("by-product"));
+        }
+    }
+    for (const char* per_kg_of_hydrogen : {"perf.specific_energy", "perf.specific_energy_plant", "perf.efficiency_hhv"})
+        EXPECT_EQ(p.block.summary_rank(p.block.find(per_kg_of_hydrogen)), 0) << per_kg_of_hydrogen;
 }
 
 TEST(UnitReport, JsonNamesTheDriveInputAndEveryVariable) {

@@ -89,6 +89,17 @@ ELY_API int32_t ely_water_electrolysis_voltages(double temperature_K, double pre
  * ELY_ERR_UNKNOWN_NAME for any other formula. */
 ELY_API int32_t ely_molar_mass(const char* formula, double* kg_per_mol);
 
+/* ---- quantities with units --------------------------------------------------------- */
+/* Reads a quantity as the plant description takes it: "number unit" ("2 A/cm2", "80 degC",
+ * "30 bar", "1.5 MW", "25 %") or a bare number, which is taken as already in `unit`. *value
+ * receives it in `unit`, a unit expression without offset: an SI unit such as
+ * ely_variable_info.unit, or any unit of the same dimension ("kW"). Units and limits are those
+ * of the plant description (docs/config.md, "Units"). A text that does not read, a unit not
+ * known or of another dimension, a non-finite result: ELY_ERR_INVALID_ARGUMENT, the message
+ * naming the text and the unit (with hints such as "did you mean degC?"); a `unit` with an
+ * offset (degC): ELY_ERR_INVALID_ARGUMENT. */
+ELY_API int32_t ely_parse_quantity(const char* text, const char* unit, double* value);
+
 /* ---- the block ---------------------------------------------------------------------
  * Life cycle: create (from JSON text or a file) → set inputs → solve → get outputs →
  * set … → solve … → destroy. Outputs are readable only while they belong to the current

@@ -1,0 +1,34 @@
+#pragma once
+// The two ways a command fails, and the exit status of each:
+//  - UsageError (exit 2): the command line is wrong: an unknown option, a bad option value, a
+//    variable name the plant does not have. One line: the problem and where to look.
+//  - Failure (exit 1): the model or the system refused: a plant that does not validate, an
+//    infeasible point, sweep points that failed, output that could not be written.
+#include <cstdint>
+#include <string>
+#include <string_view>
+
+namespace elycli {
+
+inline constexpr int kExitOk = 0;
+inline constexpr int kExitFailure = 1;
+inline constexpr int kExitUsage = 2;
+
+struct UsageError {
+    std::string message;
+    /// Where to look, e.g. "see 'elyblock variables plant.json'"; empty: the command's --help.
+    std::string hint;
+};
+
+struct Failure {
+    std::string message;
+};
+
+/// Throws Failure with the library's message for an error status (< 0); returns the status
+/// otherwise (ELY_OK or a warning). `context` prefixes the message, e.g. the config path.
+int32_t check(int32_t status, std::string_view context);
+
+/// The library's message of the last failed call on this thread, as a std::string.
+std::string last_error();
+
+}  // namespace elycli
