@@ -82,15 +82,9 @@ std::size_t main_reaction(const CustomCellSpec& spec) {
     return na;
 }
 
-// kg/mol of a reaction's product: as the table gives it, else the model's own for the gases it
-// knows (IUPAC atomic weights, thermo/constants.hpp); NaN when neither.
-double product_molar_mass(const HalfReaction& h) {
-    if (h.product_molar_mass > 0) return h.product_molar_mass;
-    if (h.product == "H2") return molar_mass::H2;
-    if (h.product == "O2") return molar_mass::O2;
-    if (h.product == "Cl2") return molar_mass::Cl2;
-    return kNaN;
-}
+// kg/mol of a reaction's product: the completed table's (given, or from its species, or the model's own
+// for H2, O2, Cl2: complete_custom_spec); NaN when none is known.
+double product_molar_mass(const HalfReaction& h) { return h.product_molar_mass > 0 ? h.product_molar_mass : kNaN; }
 
 double per(double numerator, double denominator) { return denominator > 0 ? numerator / denominator : kNaN; }
 }  // namespace
