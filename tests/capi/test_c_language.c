@@ -227,7 +227,7 @@ int ely_c_test_units_agree(char* why, size_t why_size) {
 
 /* A batch after a failed point keeps what was set on the block before the batch: the inputs,
  * a tunable parameter and the spec set since the block's last solve (or, here, with no solve
- * at all). Point 0 asks for an impossible operating point and fails; point 1 must be solved at
+ * at all). Point 0 asks for an impossible current density and fails; point 1 must be solved at
  * the block's state at the start of the batch, which a separate solve of a clone at the same
  * inputs gives (the current-density spec is solved directly: the same bits). */
 int ely_c_test_batch_after_a_failed_point(const char* config_json, char* why, size_t why_size) {
@@ -235,7 +235,7 @@ int ely_c_test_batch_after_a_failed_point(const char* config_json, char* why, si
     ely_block* c = NULL;
     int32_t i_j = -1, i_t = -1, i_r = -1, i_v = -1, i_p = -1, i_power = -1, st[2] = {0, 0};
     int32_t out_idx[4];
-    double in[2] = {1.0, 1.0e4}, out[8], v = 0, r0 = 0;
+    double in[2] = {1.0e6, 1.0e4}, out[8], v = 0, r0 = 0; /* 100 A/cm2: beyond any cell's limit */
     double power_in[2] = {1.0e12, 4.0e5};
 
     CHECK(ely_block_create(config_json, &b) == ELY_OK);

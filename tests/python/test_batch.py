@@ -279,5 +279,5 @@ def test_c_batch_keeps_the_inputs_set_before_it(reference):
     runs at the temperature set before it, never solved."""
     reference.create(DEMO_PLANT)
     reference.set("in.temperature", 352.0)
-    _, status, values = reference.batch({"in.current_density": [1.0, 1e4]}, ["in.temperature"])
+    _, status, values = reference.batch({"in.current_density": [1e6, 1e4]}, ["in.temperature"])  # 100 A/cm2 fails
     assert status[0] < 0 and values["in.temperature"][1] == 352.0
