@@ -417,7 +417,7 @@ class Block:
 
     def run_summary(self, full=False):
         """What the run since the last ``reset`` made and used (``ely_block_run_summary_json``):
-        {figure: value in SI} (hydrogen in kg, energy_dc and energy_ac in J, hours_* in s ... as
+        {figure: value in its unit} (hydrogen in kg, energy_dc and energy_ac in J, hours_* in h ... as
         docs/dynamics.md lists them; NaN where not defined). ``full=True`` gives the library's whole
         report: technology, name, start and end time, and per figure its value, unit, label and
         display unit."""
