@@ -185,11 +185,12 @@ static void fit(size_t n_points, int32_t n_in, int32_t n_meas, int32_t n_free) {
     free(names); free(bounds); free(weights); free(meas); free(in); free(meas_idx); free(in_idx);
 }
 
-static void report(void) {
+/* A block's JSON text (ely_block_report_json, ely_block_run_summary_json): "status S LENGTH", then the text. */
+static void block_text(int32_t (*call)(const ely_block*, char*, size_t, size_t*)) {
     size_t length = 0;
-    int32_t s = block ? ely_block_report_json(block, NULL, 0, &length) : ELY_ERR_WRONG_STATE;
+    int32_t s = block ? call(block, NULL, 0, &length) : ELY_ERR_WRONG_STATE;
     char* text = s >= 0 ? malloc(length) : NULL;
-    if (s >= 0) s = ely_block_report_json(block, text, length, &length);
+    if (s >= 0) s = call(block, text, length, &length);
     if (s < 0) answer(s);
     else printf("status %d %zu\n%s\n", (int)s, length, text);
     free(text);
@@ -269,16 +270,6 @@ static void restore_state(size_t length) {
     free(bytes);
 }
 
-static void run_summary(void) {
-    size_t length = 0;
-    int32_t s = block ? ely_block_run_summary_json(block, NULL, 0, &length) : ELY_ERR_WRONG_STATE;
-    char* text = s >= 0 ? malloc(length) : NULL;
-    if (s >= 0) s = ely_block_run_summary_json(block, text, length, &length);
-    if (s < 0) answer(s);
-    else printf("status %d %zu\n%s\n", (int)s, length, text);
-    free(text);
-}
-
 static const char* text_of(const char* s) { return s ? s : "(null)"; }
 
 static void variables(void) {
@@ -335,7 +326,7 @@ int main(void) {
             if (s < 0) answer(s);
             else printf("status %d %a\n", (int)s, value);
         } else if (strcmp(command, "report") == 0) {
-            report();
+            block_text(ely_block_report_json);
         } else if (strcmp(command, "variables") == 0) {
             variables();
         } else if (strcmp(command, "water") == 0 && arg) {
@@ -381,7 +372,7 @@ int main(void) {
             if (!block || !n_out) answer(ELY_ERR_WRONG_STATE);
             else simulate((size_t)strtoull(arg, NULL, 10), (int32_t)atoi(n_in), (int32_t)atoi(n_out));
         } else if (strcmp(command, "summary") == 0) {
-            run_summary();
+            block_text(ely_block_run_summary_json);
         } else {
             printf("status %d unknown command\n", (int)ELY_ERR_INVALID_ARGUMENT);
         }

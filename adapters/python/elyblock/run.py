@@ -19,7 +19,6 @@ unless ``spec=`` says otherwise; the block keeps that spec afterwards.
 import ctypes
 import json
 import math
-import re
 import warnings
 from collections.abc import Mapping
 
@@ -27,6 +26,7 @@ import numpy as np
 
 from . import _capi, _progress, errors
 from ._batch import is_dataframe, output_names, unique
+from .fit import _split_name
 from .units import convert_unit
 
 lib = _capi.lib
@@ -37,13 +37,6 @@ DRIVES = {"in.current_density": "current_density", "in.current": "current", "in.
 #: The name of the time column in the result.
 TIME = "time"
 
-_UNIT_IN_NAME = re.compile(r"^\s*([^\[\]]*?)\s*\[([^\[\]]*)\]\s*$")
-
-
-def _split_name(column):
-    """("name", "unit") of a column "name [unit]"; ("name", None) without brackets."""
-    match = _UNIT_IN_NAME.match(column)
-    return (match.group(1), match.group(2).strip() or None) if match else (column.strip(), None)
 
 
 class Profile:
