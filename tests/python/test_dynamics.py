@@ -61,6 +61,20 @@ def test_advance_warns_with_the_alarm_and_keywords_set_inputs():
     assert b["in.current_density"] == 2.5e3 and b.warning
 
 
+def test_reset_takes_a_spec_and_inputs(reference):
+    b = elyblock.Block(DEMO_PLANT)
+    b.reset(30.0, spec="power", power=12e6, ambient_temperature=280.0)
+    assert b.spec == "power" and b.time == 30.0
+    assert b["in.power"] == 12e6 and b["in.ambient_temperature"] == 280.0
+    assert b["stack.power"] == pytest.approx(12e6, rel=1e-9)  # started at its setpoint
+    reference.create(DEMO_PLANT)
+    reference.spec("power")
+    reference.set("in.power", 12e6)
+    reference.set("in.ambient_temperature", 280.0)
+    reference.reset(30.0)
+    assert_identical(list(b[OUTPUTS].values()), list(reference.values(OUTPUTS).values()))
+
+
 def test_time_and_summary_before_a_reset_are_wrong_state():
     b = elyblock.Block(DEMO_PLANT)
     with pytest.raises(errors.WrongStateError):

@@ -348,15 +348,18 @@ class Block:
             warnings.warn(errors.ElyWarning(self.warning), stacklevel=3)
         return errors.Status(status)
 
-    def reset(self, start_time=0.0, inputs=None, /, **keywords):
+    def reset(self, start_time=0.0, inputs=None, /, *, spec=None, **keywords):
         """Starts a dynamic run at ``start_time`` (s) from the current inputs, after setting the
         ones given (as ``set``): the stack temperature takes ``in.temperature``, the operating
         hours ``in.hours_operated``, and the plant is in the mode ``in.mode_request`` asks for (0
         off, 1 hot standby, 2 production, 3 automatic), at its setpoint. Every output is valid for
-        that state (``ely_block_reset``). Returns ``Status.OK`` or ``Status.WARNING`` (an alarm
-        raised, with an ``ElyWarning``)."""
+        that state (``ely_block_reset``). ``spec``: the spec of the run, if not the block's (as for
+        ``solve``). Returns ``Status.OK`` or ``Status.WARNING`` (an alarm raised, with an
+        ``ElyWarning``)."""
         _capi.require("ely_block_reset", "Block.reset")
         with self._lock:
+            if spec is not None:
+                self.set_spec(spec)
             if inputs or keywords:
                 self.set(inputs, **keywords)
             status = lib.ely_block_reset(self._live(), float(start_time))
