@@ -15,6 +15,7 @@
 #include <string_view>
 #include <vector>
 
+#include "thermo/species.hpp"
 #include "unit/plant.hpp"
 #include "unit/variables.hpp"
 
@@ -34,6 +35,9 @@ public:
     const TechnologyInfo& technology() const { return *design_.technology; }
     /// The cell model in use: the configured one, or one rebuilt after a cell parameter was set.
     const Cell& cell() const { return *cell_; }
+    /// The rated current density a description that gives none gets: the technology's (registry), or
+    /// for a technology without one the cell model's maximum, A/m².
+    double default_rated_current_density() const;
 
     // Variables are addressed by a dense index 0..count-1: the table's variables that the
     // technology has (table order), its cell parameters, then the outputs its cell adds.
@@ -61,6 +65,16 @@ public:
     /// every variable with its value (null when not a number) and unit.
     std::string report_json() const;
 
+    /// The energy balance of an operating point, W: the one place that computes it (streams.cpp), for the
+    /// steady outputs and for a dynamic layer that needs the heat released at the stack's temperature.
+    struct EnergyBalance {
+        double released = 0;      // P_DC + enthalpy of what enters the stacks − of what leaves them at T
+        double loss = 0;          // heat lost to ambient
+        double duty = 0;          // released − loss: heat to remove to hold the stack temperature
+        double gas_coolers = 0;   // heat removed in the gas coolers (stack temperature → cooler outlet)
+        double feed_heating = 0;  // heat supplied to raise steam and heat sweep air (steam-fed cells)
+    };
+
 private:
     enum class Kind : uint8_t { table, cell_parameter, own_output };
     struct Slot {
@@ -69,6 +83,7 @@ private:
     };
     struct Layout;  // per technology, built once (block.cpp)
     struct PointResult;
+    struct PlantStreams;
 
     Slot slot(int32_t index) const;
     [[noreturn]] void bad_index(int32_t index) const;
@@ -81,10 +96,21 @@ private:
     double solve_current_density(double j_max);
     void evaluate_at(double current_density, PointResult& out) const;
     // streams.cpp
+    void plant_streams(const PointResult& r, PlantStreams& out) const;
+    EnergyBalance energy_balance(const PointResult& r, const PlantStreams& streams) const;
     void fill_outputs(const PointResult& r);
     // alarms.cpp
     void fill_alarms(const PointResult& r);
     std::string alarm_message() const;
+
+    // Ideal-gas molar enthalpies at the stack and gas-cooler temperatures, kept between solves (streams.cpp):
+    // batches and spec solves at one temperature need them once (a cache of a pure function).
+    struct GasEnthalpies {
+        double temperature = -1.0;
+        uint32_t known = 0;  // bit per Species
+        double enthalpy[kSpeciesCount] = {};
+    };
+    double gas_enthalpy(Species species, double temperature) const;
 
     PlantDesign design_;
     const Layout* layout_;  // static, per technology
@@ -96,6 +122,8 @@ private:
     std::vector<double> v_;  // by Var, then the own outputs
     double rectifier_rated_power_ = 0;
     double last_current_density_ = -1;  // warm start of the spec solves
+    mutable GasEnthalpies gas_enthalpies_[2];
+    mutable int gas_enthalpies_next_ = 0;
 
     // The last successful solve, for rollback.
     std::vector<double> last_good_;

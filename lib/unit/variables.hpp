@@ -31,12 +31,12 @@ enum Var : int {
     in_temperature, in_pressure_cathode, in_pressure_anode, in_hours_operated, in_feed_temperature,
     // parameters: structural (fixed by the plant description), then tunable
     par_cells, par_stacks, par_active_area,
-    par_current_density_max, par_min_load_fraction, par_temperature_max,
+    par_current_density_max, par_rated_current_density, par_min_load_fraction, par_temperature_max,
     par_rectifier_rated_power, par_rectifier_loss_no_load, par_rectifier_loss_linear, par_rectifier_loss_quadratic,
     par_auxiliaries_fixed, par_auxiliaries_proportional,
     par_alarms_h2_in_o2_warning, par_alarms_h2_in_o2_trip, par_alarms_lower_flammability_limit,
     par_degradation_voltage_rate, par_degradation_resistance_rate,
-    par_heat_loss_coefficient, par_ambient_temperature,
+    par_heat_loss_coefficient, par_ambient_temperature, par_gas_cooler_temperature,
     // cell
     cell_voltage, cell_reversible_voltage, cell_thermoneutral_voltage, cell_activation_anode,
     cell_activation_cathode, cell_ohmic, cell_concentration, cell_degradation, cell_current_density,
@@ -46,16 +46,17 @@ enum Var : int {
     plant_rectifier_loss, plant_rectifier_efficiency, plant_auxiliary_power,
     // products and feeds (plant totals)
     product_hydrogen, product_oxygen, product_chlorine, product_caustic, product_caustic_solution,
-    product_main, feed_water, feed_salt,
+    product_main, feed_water, feed_salt, feed_hydrogen, feed_sweep_air,
     // streams
     stream_cathode_mass_flow, stream_cathode_temperature, stream_cathode_pressure, stream_cathode_x_h2,
     stream_cathode_x_o2, stream_cathode_x_h2o,
     stream_anode_mass_flow, stream_anode_temperature, stream_anode_pressure, stream_anode_x_o2,
-    stream_anode_x_h2, stream_anode_x_cl2, stream_anode_x_h2o,
+    stream_anode_x_h2, stream_anode_x_cl2, stream_anode_x_h2o, stream_anode_x_n2,
+    stream_condensate_mass_flow, stream_drain_mass_flow, stream_dryer_loss_mass_flow,
     // purity
     gas_h2_in_o2, gas_o2_in_h2, gas_o2_in_cl2,
     // heat
-    heat_duty, heat_loss,
+    heat_duty, heat_loss, heat_gas_coolers, heat_feed_heating,
     // performance
     perf_specific_energy, perf_specific_energy_plant, perf_efficiency_hhv, perf_efficiency_lhv,
     perf_specific_energy_chlorine, perf_load_fraction, perf_water_per_hydrogen,

@@ -129,6 +129,19 @@ std::string variables_markdown() {
         out += '\n';
     }
 
+    out += "## Rated current densities\n\n"
+           "The default of `plant.limits.rated_current_density` (`param.limits.rated_current_density`) per "
+           "technology: load (`perf.load_fraction`), minimum load and `alarm.current_density_high` count against "
+           "it, and the automatic rectifier rating is sized at it. It is the plant's nominal operating point, not "
+           "the cell model's validity limit (`param.current_density_max`, the cell's envelope by default).\n\n"
+           "| technology | rated current density | source |\n|---|---|---|\n";
+    for (const auto& t : technologies())
+        out += fmt::format("| {} | {} | {} |\n", t.name,
+                           t.rated_current_density > 0 ? fmt::format("{:g} A/cm2", t.rated_current_density * 1e-4)
+                                                       : std::string("—"),
+                           t.rated_current_density_source);
+    out += '\n';
+
     out += "## Summary layout\n\n"
            "What a host's summary shows for each technology (`summary_group` and `summary_rank` of "
            "`ely_variable_info`), section by section; every summary ends with the alarms that are raised.\n\n";

@@ -74,7 +74,7 @@ def test_efficiency_lines_are_the_c_values(reference):
     figure = plots.efficiency(DEMO_PLANT, load)
     top, bottom = figure.axes
     b = elyblock.Block(DEMO_PLANT)
-    _, status, c = c_results(reference, DEMO_PLANT, {"in.current_density": load * b["param.current_density_max"]},
+    _, status, c = c_results(reference, DEMO_PLANT, {"in.current_density": load * b["param.limits.rated_current_density"]},
                              plots.EFFICIENCY_OUTPUTS)
     assert (status >= 0).all()
     x = c["perf.load_fraction"] * 100

@@ -101,23 +101,24 @@ def polarization(plant, current_density=None, *, points=60, inputs=None, ax=None
 
 
 def efficiency(plant, load=None, *, points=40, inputs=None, axes=None, title=None):
-    """Efficiency (HHV and LHV, DC stack) and specific energy (DC stack and AC plant) against
-    load, the current density over the plant's maximum. ``load`` as fractions (default 5 % to
-    100 %); ``axes``: two axes to draw into (efficiency, specific energy)."""
+    """Efficiency (HHV and LHV, on DC power plus the heat supplied) and specific energy (DC stack
+    and AC plant) against load, the current density over the plant's rated current density.
+    ``load`` as fractions (default 5 % to 100 %); ``axes``: two axes to draw into (efficiency,
+    specific energy)."""
     block = _block(plant)
     if load is None:
         load = np.linspace(0.05, 1.0, points)
-    current_density = np.asarray(load, dtype=np.float64) * block["param.current_density_max"]
+    current_density = np.asarray(load, dtype=np.float64) * block["param.limits.rated_current_density"]
     r = _sweep(block, current_density, points, inputs, EFFICIENCY_OUTPUTS)
     top, bottom = _axes(axes, rows=2, size=(7.0, 6.5))
     x = r["perf.load_fraction"] * PERCENT
     top.plot(x, r["perf.efficiency_hhv"] * PERCENT, label="HHV basis")
     top.plot(x, r["perf.efficiency_lhv"] * PERCENT, label="LHV basis")
-    top.set_ylabel("efficiency, DC stack [%]")
+    top.set_ylabel("efficiency, DC + heat supplied [%]")
     bottom.plot(x, r["perf.specific_energy"] / J_PER_KWH, label="DC stack")
     bottom.plot(x, r["perf.specific_energy_plant"] / J_PER_KWH, label="AC plant")
     bottom.set_ylabel("specific energy [kWh/kg H₂]")
-    bottom.set_xlabel("load: current density / maximum [%]")
+    bottom.set_xlabel("load: current density / rated [%]")
     for a in (top, bottom):
         a.grid(alpha=0.3)
         a.legend(fontsize="small")
