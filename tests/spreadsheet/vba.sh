@@ -4,7 +4,8 @@
 # ELY_WINESERVER, WINEPREFIX, ELY_WINDOWS_BUILD, ELY_SOURCE_DIR, ELY_OBJDUMP, ELY_WORK_DIR.
 #   exports               the Declares of elyblock.dll against the DLL's export table
 #   calls                 vba_calls.exe calls: every Declare called with its declared types
-#   points LINUX_PROGRAM  vba_calls.exe points: the 50 points of tests/windows against their Linux run
+#   points LINUX_PROGRAM  vba_calls.exe points: the 50 points of tests/windows through the Declares,
+#                         against their Linux run
 set -euo pipefail
 case_name=$1
 shift

@@ -10,12 +10,13 @@
  *
  *   vba_calls calls PLANT          calls every declared function once and checks its results
  *                                  (PLANT: a plant file, its Windows path)
- *   vba_calls points PLANTS LINUX  the operating points of tests/windows/points.c, the way the
- *                                  worksheet functions compute them: each plant's block created
- *                                  once from its JSON text, each point solved on a fresh clone
- *                                  (PLANTS: "name<TAB>json" lines; LINUX: points.c's output on
- *                                  Linux, whose plants, specs, drives and outputs are computed
- *                                  again); prints points.c's format for compare_points.py
+ *   vba_calls points PLANTS LINUX  the operating points of tests/windows/points.c through the
+ *                                  module's Declares (PLANTS: "name<TAB>json" lines; LINUX: points.c's
+ *                                  output on Linux, whose plants, specs, drives and outputs are
+ *                                  computed again, in its order: one block per plant, a clone of
+ *                                  the block created from its text, solved point after point as
+ *                                  points.c does, since a power-spec solve starts from the last
+ *                                  solution); prints points.c's format for compare_points.py
  */
 #include <math.h>
 #include <stdio.h>
@@ -350,7 +351,7 @@ static int run_calls(const wchar_t* plant_path) {
     return failures ? 1 : 0;
 }
 
-/* ---- points: the worksheet functions' way ------------------------------------------------------- */
+/* ---- points: tests/windows' 50, through the Declares ------------------------------------------------ */
 #define MAX_PLANTS 16
 static struct {
     char name[64];
@@ -402,6 +403,8 @@ static int run_points(const char* plants_path, const char* linux_path) {
     free(version);
     static char line[16384];
     int points = 0;
+    char current_plant[64] = "", current_spec[64] = "";
+    intptr_t work = 0;
     while (fgets(line, sizeof line, f)) {
         if (strncmp(line, "abi ", 4) == 0 || strncmp(line, "points ", 7) == 0) continue;
         char* save = NULL;
@@ -411,15 +414,22 @@ static int run_points(const char* plants_path, const char* linux_path) {
         if (!plant || !spec || !drive) continue;
         strtok_s(NULL, " \r\n", &save); /* "status" */
         strtok_s(NULL, " \r\n", &save); /* the Linux status: this side computes its own */
-        /* ELYSOLVE(plant, output, "in.<spec>", drive): a clone of the plant's block, the spec its drive
-         * input chooses, the drive set, solved; then each output read. */
-        intptr_t work = 0;
-        CHECK(CALL(ely_block_clone)(plant_block(plant), &work) == ELY_OK, "clone: %s", last_error());
-        wchar_t* wide = widen(spec);
-        char* spec_bytes = utf8(wide);
-        CHECK(CALL(ely_block_set_spec)(work, (intptr_t)spec_bytes) == ELY_OK, "spec %s: %s", spec, last_error());
-        free(spec_bytes);
-        free(wide);
+        if (strcmp(plant, current_plant) != 0) {
+            CALL(ely_block_destroy)(work);
+            work = 0;
+            CHECK(CALL(ely_block_clone)(plant_block(plant), &work) == ELY_OK, "clone: %s", last_error());
+            snprintf(current_plant, sizeof current_plant, "%s", plant);
+            current_spec[0] = '\0';
+        }
+        wchar_t* wide;
+        if (strcmp(spec, current_spec) != 0) {
+            wide = widen(spec);
+            char* spec_bytes = utf8(wide);
+            CHECK(CALL(ely_block_set_spec)(work, (intptr_t)spec_bytes) == ELY_OK, "spec %s: %s", spec, last_error());
+            free(spec_bytes);
+            free(wide);
+            snprintf(current_spec, sizeof current_spec, "%s", spec);
+        }
         char drive_name[128];
         snprintf(drive_name, sizeof drive_name, "in.%s", spec);
         wide = widen(drive_name);
@@ -439,9 +449,9 @@ static int run_points(const char* plants_path, const char* linux_path) {
             free(wide);
         }
         printf("\n");
-        CALL(ely_block_destroy)(work);
         ++points;
     }
+    CALL(ely_block_destroy)(work);
     fclose(f);
     for (int k = 0; k < plant_count; ++k) CALL(ely_block_destroy)(plants[k].block);
     printf("points %d\n", points);
