@@ -279,6 +279,7 @@ class BlockCache:
         self.capacity = capacity
         self._blocks = collections.OrderedDict()
         self.creations = 0  # how many plants were parsed (tests check that a sheet parses each once)
+        self._tables = {}  # id of a kept block -> {variable name: Variable}
 
     def block(self, kind, source):
         if kind == "file":
@@ -302,12 +303,25 @@ class BlockCache:
         if key is not None:
             self._blocks[key] = block
             while len(self._blocks) > self.capacity:
-                self._blocks.popitem(last=False)[1].close()
+                self._free(self._blocks.popitem(last=False)[1])
         return block
+
+    def variables(self, block):
+        """{name: Variable} of a block of the cache."""
+        table = self._tables.get(id(block))
+        if table is None:
+            table = {v.name: v for v in block.variables()}
+            if any(b is block for b in self._blocks.values()):
+                self._tables[id(block)] = table
+        return table
+
+    def _free(self, block):
+        self._tables.pop(id(block), None)
+        block.close()
 
     def clear(self):
         while self._blocks:
-            self._blocks.popitem()[1].close()
+            self._free(self._blocks.popitem()[1])
 
 
 # ---- the functions -------------------------------------------------------------------------------
@@ -319,6 +333,7 @@ class Functions:
         self.table = table or load_table()
         self.by_name = {f["name"]: f for f in self.table["functions"]}
         self.cache = BlockCache()
+        self._range_texts = {}  # range (tuple of rows) -> ("text", JSON)
         self._lock = threading.RLock()
 
     # -- dispatch --
@@ -361,13 +376,26 @@ class Functions:
 
     # -- plants and points --
     def _block(self, plant, base_dir):
+        if isinstance(plant, tuple) and len(plant) > 1:
+            # A range as the host passes it (a tuple of row tuples): its JSON text is kept with it,
+            # since writing it costs more than the solve.
+            try:
+                source = self._range_texts.get(plant)
+            except TypeError:  # a cell value that does not hash
+                return self.cache.block(*plant_source(plant, base_dir))
+            if source is None:
+                source = plant_source(plant, base_dir)
+                if len(self._range_texts) >= 4 * self.cache.capacity:
+                    self._range_texts.clear()
+                self._range_texts[plant] = source
+            return self.cache.block(*source)
         return self.cache.block(*plant_source(plant, base_dir))
 
     def _solved(self, plant, inputs, base_dir):
         """A clone of the plant's block with the inputs set and solved, and its warning."""
         ely = library()
         base = self._block(plant, base_dir)
-        names = {v.name: v for v in base.variables()}
+        names = self.cache.variables(base)
         spec, sets = self._inputs(base, names, inputs)
         work = base.clone()
         try:
