@@ -89,6 +89,9 @@ def vba(table):
         out.append(f"' {f['summary']}")
         out.append(f"Public Function {f['name']}({', '.join(params)}) As Variant")
         fixed_array = f"Array({', '.join(fixed)})" if fixed else "Array()"
+        for a in f["arguments"]:
+            if a.get("optional") and a["kind"] not in REPEATED:  # an omitted one counts as an empty cell
+                out.append(f"    If IsMissing({a['name']}) Then {a['name']} = Empty")
         if repeated:  # a ParamArray is passed on as a copy in a Variant
             out.append("    Dim rest As Variant")
             out.append(f"    rest = {repeated}")

@@ -730,9 +730,11 @@ Private Function RunVariables(ByVal args As Variant) As Variant
     RunVariables = out
 End Function
 
-' The message of a call of another function with the given arguments.
+' The message of a call of another function with the given arguments (never an error value: a
+' wrong func_name gives its message too).
 Private Function RunMessage(ByVal args As Variant) As Variant
     Dim target As String, rest() As Variant, k As Long, message As String, failed As Long
+    On Error GoTo failure
     target = TextArgument(args(0), "func_name")
     If UCase$(target) = "ELYMESSAGE" Or UCase$(target) = "MESSAGE" Then Fail "ELYMESSAGE explains a call of another function"
     If UBound(args) >= 1 Then
@@ -745,6 +747,9 @@ Private Function RunMessage(ByVal args As Variant) As Variant
         ElyRun target, Array(), message, failed
     End If
     RunMessage = message
+    Exit Function
+failure:
+    RunMessage = Err.Description
 End Function
 
 ' ---- BEGIN GENERATED from adapters/spreadsheet/functions.json by generate.py (do not edit) ----
@@ -765,6 +770,7 @@ End Function
 
 ' Lists the plant's variables: a header row, then one row per variable with its name, SI unit, causality, display unit and description.
 Public Function ELYVARIABLES(plant As Variant, Optional causality As Variant) As Variant
+    If IsMissing(causality) Then causality = Empty
     ELYVARIABLES = ElyCall("ELYVARIABLES", Array(plant, causality), Array())
 End Function
 
