@@ -320,6 +320,11 @@ static int run_calls(const wchar_t* plant_path) {
     double value = 0.0, error = 0.0;
     CHECK(CALL(ely_fit_parameter)(fit, 0, &value, &error) == ELY_OK && close_rel(value, truth, 1e-6),
           "fitted %.17g, made with %.17g", value, truth);
+    /* The data are the model's own: the fit's RMSE is about zero, over all N rows. */
+    double rmse = -1.0;
+    intptr_t rows = 0;
+    CHECK(CALL(ely_fit_rmse)(fit, 0, &rmse, &rows) == ELY_OK && rows == N && rmse >= 0.0 && rmse < 1e-9,
+          "fit RMSE %.3g over %d rows", rmse, (int)rows);
     wchar_t* fit_report = text_of(vba.ely_fit_report_json, fit);
     mark("ely_fit_report_json");
     CHECK(wcsstr(fit_report, L"\"parameters\"") != NULL, "fit report");

@@ -56,6 +56,7 @@ Private Declare PtrSafe Function ely_block_fit Lib "elyblock.dll" (ByVal block A
 Private Declare PtrSafe Function ely_fit_report_json Lib "elyblock.dll" (ByVal fit As LongPtr, ByVal buffer As LongPtr, ByVal capacity As LongPtr, ByRef length As LongPtr) As Long
 Private Declare PtrSafe Function ely_fit_plant_json Lib "elyblock.dll" (ByVal fit As LongPtr, ByVal buffer As LongPtr, ByVal capacity As LongPtr, ByRef length As LongPtr) As Long
 Private Declare PtrSafe Function ely_fit_parameter Lib "elyblock.dll" (ByVal fit As LongPtr, ByVal k As Long, ByRef value As Double, ByRef standard_error As Double) As Long
+Private Declare PtrSafe Function ely_fit_rmse Lib "elyblock.dll" (ByVal fit As LongPtr, ByVal o As Long, ByRef rmse As Double, ByRef rows As LongPtr) As Long
 Private Declare PtrSafe Sub ely_fit_destroy Lib "elyblock.dll" (ByVal fit As LongPtr)
 
 ' ---- Windows --------------------------------------------------------------------------------------
