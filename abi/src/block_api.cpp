@@ -11,21 +11,15 @@
 #include "elyblock/elyblock.h"
 #include "block_handle.hpp"
 #include "guard.hpp"
+#include "handle.hpp"
 #include "unit/block.hpp"
 
 namespace {
 using ely::Error;
 using ely::ErrorKind;
+using ely::capi::finish_solve;
 using ely::capi::guard;
 using ely::capi::require_pointer;
-
-int32_t finish_solve(const ely::SolveOutcome& outcome) {
-    if (outcome.warning) {
-        ely::capi::set_last_error(outcome.message);
-        return ELY_WARNING;
-    }
-    return ELY_OK;
-}
 
 ely::Spec parse_spec(const char* text) {
     if (const ely::SpecInfo* s = ely::find_spec(text)) return s->spec;
@@ -169,29 +163,8 @@ ELY_API int32_t ely_block_solve_batch(const ely_block* block, size_t n_points, i
                                       ely_progress_fn progress, void* user) {
     return guard([&] {
         require_pointer(block, "block");
-        // Every check holds for every count, zero included: an index array is read whenever its
-        // count is positive (its indices are checked even for zero points), a data array whenever
-        // there is a point to read or write. The arrays of n_points rows must be addressable.
-        if (n_inputs < 0) throw Error(ErrorKind::invalid_argument, "n_inputs is " + std::to_string(n_inputs) + "; it must not be negative");
-        if (n_outputs < 0) throw Error(ErrorKind::invalid_argument, "n_outputs is " + std::to_string(n_outputs) + "; it must not be negative");
-        if (n_inputs > 0) require_pointer(input_indices, "input_indices");
-        if (n_outputs > 0) require_pointer(output_indices, "output_indices");
-        if (n_points > 0) {
-            require_pointer(point_status, "point_status");
-            if (n_inputs > 0) require_pointer(inputs, "inputs");
-            if (n_outputs > 0) require_pointer(outputs, "outputs");
-        }
-        const size_t row_bytes = std::max(sizeof(int32_t), sizeof(double) * static_cast<size_t>(std::max(n_inputs, n_outputs)));
-        if (n_points > std::numeric_limits<size_t>::max() / row_bytes)
-            throw Error(ErrorKind::invalid_argument, "n_points is " + std::to_string(n_points) + ": the value arrays would exceed the address space");
-        // Check every index before writing anything.
-        for (int32_t i = 0; i < n_inputs; ++i) {
-            const auto& info = block->model.variable(input_indices[i]);
-            if (info.causality != ely::Causality::input)
-                throw Error(ErrorKind::invalid_argument, std::string("input_indices[") + std::to_string(i) + "] is '" +
-                                                             info.name + "', which is not an input");
-        }
-        for (int32_t o = 0; o < n_outputs; ++o) block->model.variable(output_indices[o]);
+        ely::capi::check_table(block->model, n_points, "n_points", n_inputs, input_indices, inputs, n_outputs,
+                               output_indices, outputs, point_status, "point_status");
 
         // The working copy returns to the block's state at the start of the batch after a failed
         // point (not to the block's last successful solve: inputs, parameters and the spec set

@@ -18,4 +18,7 @@ namespace ely::capi {
 /// buffer_too_small (the size still reported), a NULL buffer with a capacity invalid_argument.
 void copy_text(const std::string& text, char* buffer, std::size_t capacity, std::size_t* length);
 
+/// The same protocol for bytes (a saved state): no NUL; *length is the number of bytes.
+void copy_bytes(const std::string& bytes, void* buffer, std::size_t capacity, std::size_t* length);
+
 }  // namespace ely::capi

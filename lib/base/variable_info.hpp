@@ -42,6 +42,11 @@ constexpr DisplayUnit kg_per_kg{"kg/kg", 1.0, 0.0};
 constexpr DisplayUnit t_per_t{"t/t", 1.0, 0.0};
 constexpr DisplayUnit ohm_cm2{"ohm cm2", 1e4, 0.0};
 constexpr DisplayUnit uV_per_h{"uV/h", 1e6, 0.0};
+constexpr DisplayUnit MJ_per_K{"MJ/K", 1e-6, 0.0};
+constexpr DisplayUnit kW_per_K{"kW/K", 1e-3, 0.0};
+constexpr DisplayUnit percent_per_s{"%/s", 100.0, 0.0};
+constexpr DisplayUnit t_per_h{"t/h", 3.6, 0.0};
+constexpr DisplayUnit minutes{"min", 1.0 / 60.0, 0.0};
 }  // namespace display
 
 struct VariableInfo {

@@ -42,6 +42,25 @@ struct SummaryGroup {
     bool own_outputs = false;  // followed by the outputs the cell adds (Cell::own_outputs)
 };
 
+/// What the plant in time (dynamic runs: reset, advance, lib/unit/dynamics*.cpp) takes from the
+/// technology where the variable table has no one value: thermal mass, heat loss, coolant,
+/// ramp, separator and start-up data. Values per m² scale with the plant's total active area
+/// (cells × active area × stacks). Sources are named beside each entry (registry.cpp) and in
+/// docs/dynamics.md.
+struct DynamicDefaults {
+    double heat_capacity_per_area;    // J/(K·m²): stacks, electrolyte or water loop, separators
+    double heat_loss_per_area;        // W/(K·m²) to ambient (the stacks' share: param.thermal.heat_loss_coefficient)
+    double coolant_temperature;       // K, coolant at the exchanger inlet
+    double coolant_heat_capacity;     // J/(kg·K)
+    double coolant_temperature_rise;  // K across the exchanger at rated load: sizes the coolant flow
+    double ramp_rate;                 // 1/s, fraction of the rated current per second
+    double holdup_time;               // s, anode separator gas volume over the anode gas flow at rated load
+    double cold_start_duration;       // s, purge and pressurisation before current may flow after a start from cold
+    double warm_start_duration;       // s, from hot standby to production
+    double heat_up_time;              // s, sizes the standby heater: ambient to standby temperature
+    const char* source;               // where the numbers come from
+};
+
 struct TechnologyInfo {
     const char* name;   // the config's "technology" value
     const char* title;  // one line for docs and messages
@@ -59,6 +78,7 @@ struct TechnologyInfo {
     /// (its envelope). 0: no single value fits the technology (the custom cell: its envelope maximum).
     double rated_current_density = 0.0;
     const char* rated_current_density_source = "";
+    DynamicDefaults dynamics;
 
     bool has(uint32_t wanted) const { return (features & wanted) == wanted; }
 };

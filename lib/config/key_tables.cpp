@@ -109,17 +109,61 @@ const std::vector<PlantField>& alarms_fields() {
 
 const std::vector<PlantField>& degradation_fields() {
     static const std::vector<PlantField> fields = {variable(par_degradation_voltage_rate),
-                                                   variable(par_degradation_resistance_rate)};
+                                                   variable(par_degradation_resistance_rate),
+                                                   variable(par_degradation_voltage_limit)};
     return fields;
 }
+
+// Defaults the block settles from the technology (lib/cells/registry.cpp, DynamicDefaults) and the
+// plant when the key is not given (lib/unit/dynamics_defaults.cpp; docs/dynamics.md).
+constexpr const char* kPerArea = "the technology's value per m2 of cell area x the cell area";
 
 const std::vector<PlantField>& thermal_fields() {
     static const std::vector<PlantField> fields = {
         variable(in_feed_temperature),
-        variable(par_heat_loss_coefficient),
-        variable(par_ambient_temperature),
+        variable(par_heat_loss_coefficient).defaults("the technology's value per m2 of cell area x the cells' area per stack"),
+        variable(in_ambient_temperature),
         variable(par_gas_cooler_temperature),
+        variable(par_exchanger_ua)
+            .defaults("sized with operating.coolant_flow: the open valve takes 110 % of the heat of rated load at the "
+                      "temperature setpoint"),
+        variable(par_coolant_heat_capacity).defaults("the technology's coolant (water or air)"),
+        variable(par_temperature_control, Type::count),
+        variable(par_temperature_setpoint).defaults("operating.temperature"),
+        variable(par_control_band),
+        variable(par_integral_time),
     };
+    return fields;
+}
+
+const std::vector<PlantField>& separator_fields() {
+    static const std::vector<PlantField> fields = {variable(par_holdup_time).defaults("the technology's")};
+    return fields;
+}
+
+const std::vector<PlantField>& standby_fields() {
+    static const std::vector<PlantField> fields = {
+        variable(par_standby_method, Type::count),
+        variable(par_standby_temperature).defaults("thermal.temperature_setpoint - thermal.control_band"),
+        variable(par_heater_power)
+            .defaults("heats the plant from ambient to the standby temperature in the technology's heat-up time "
+                      "and covers the heat loss there"),
+        variable(par_standby_current_fraction).defaults("limits.min_load_fraction"),
+    };
+    return fields;
+}
+
+const std::vector<PlantField>& startup_fields() {
+    static const std::vector<PlantField> fields = {
+        variable(par_startup_cold_duration).defaults("the technology's"),
+        variable(par_startup_warm_duration).defaults("the technology's"),
+        variable(par_startup_temperature).defaults("the cell model's lowest temperature"),
+    };
+    return fields;
+}
+
+const std::vector<PlantField>& dynamics_fields() {
+    static const std::vector<PlantField> fields = {variable(par_dynamics_tolerance)};
     return fields;
 }
 
@@ -130,7 +174,13 @@ const std::vector<PlantField>& plant_fields() {
         section("limits", limits_fields(), "operating limits"),
         section("alarms", alarms_fields(), "anode-gas purity alarms"),
         section("degradation", degradation_fields(), "ageing"),
-        section("thermal", thermal_fields(), "feed and heat-loss data"),
+        section("thermal", thermal_fields(), "feed, heat loss, coolant exchanger and temperature control"),
+        variable(par_heat_capacity).defaults(kPerArea),
+        variable(par_ramp_rate).defaults("the technology's"),
+        section("separator", separator_fields(), "anode gas separator (dynamic runs)"),
+        section("standby", standby_fields(), "hot standby (dynamic runs)"),
+        section("startup", startup_fields(), "start-ups from cold and from hot standby (dynamic runs)"),
+        section("dynamics", dynamics_fields(), "time integration"),
         flag<PlantDesign>("drag_water_returned", [](PlantDesign& d) -> bool& { return d.drag_water_returned; },
                           "water dragged to the cathode (PEM) is separated and returned to the feed (true) or "
                           "drained and made up (false)"),
@@ -156,6 +206,11 @@ const std::vector<PlantField>& operating_fields() {
         variable(in_pressure_cathode).defaults("101325 Pa, or the cell model's lowest pressure if that is higher"),
         variable(in_pressure_anode).defaults("101325 Pa, or the cell model's lowest pressure if that is higher"),
         variable(in_hours_operated),
+        variable(in_coolant_temperature).defaults("the technology's coolant inlet temperature"),
+        variable(in_coolant_flow)
+            .defaults("sized so that the open valve takes 110 % of the heat of rated load at the temperature "
+                      "setpoint with the technology's coolant temperature rise"),
+        variable(in_mode_request, Type::count),
     };
     return fields;
 }

@@ -101,6 +101,10 @@ Block::Block(PlantDesign design)
     if (!(v_[par_current_density_max] > 0)) v_[par_current_density_max] = cell_->envelope().current_density_max;
     if (!(v_[par_rated_current_density] > 0)) v_[par_rated_current_density] = default_rated_current_density();
     rectifier_rated_power_ = rectifier_rating();
+    // What the plant in time takes from the technology and the plant's rating (coolant, heater,
+    // heat capacity, ...): settled once, into the design's values, so they are the start values.
+    settle_dynamic_defaults();
+    fingerprint_ = fingerprint_of(design_, own_count_);
     last_good_ = v_;
     last_good_cell_ = cell_;
     last_good_cell_values_ = cell_values_;
@@ -173,10 +177,44 @@ void Block::set(int32_t index, double value) {
                                 "from a changed description to change it",
                                 info.name, info.config_key ? info.config_key : "its stack section"));
     check_limits(info, value);
-    if (s.kind == Kind::cell_parameter) set_cell_parameter(static_cast<std::size_t>(s.id), value);
-    else if (info.causality == Causality::parameter) set_plant_parameter(static_cast<Var>(s.id), value);
-    else v_[static_cast<std::size_t>(s.id)] = value;
+    // Modes and switches take whole numbers only (the config reads them as integers).
+    const bool whole = info.variability == Variability::discrete ||
+                       (s.kind == Kind::table && (s.id == par_temperature_control || s.id == par_standby_method));
+    if (whole && value != std::floor(value))
+        throw Error(ErrorKind::invalid_argument, fmt::format("{} {:g} is not a whole number", info.name, value));
+    const double before = s.kind == Kind::cell_parameter ? cell_values_->values()[static_cast<std::size_t>(s.id)]
+                                                         : v_[static_cast<std::size_t>(s.id)];
+    if (info.causality == Causality::parameter) {
+        // A parameter can change what the plant's automatic values (the coolant sized at rated
+        // load, ...) come to: they are settled again, and the set is undone if that fails.
+        const std::vector<double> values = v_;
+        const auto automatic = automatic_;
+        const auto cell = cell_;
+        const auto cell_values = cell_values_;
+        const double rating = rectifier_rated_power_;
+        try {
+            if (s.kind == Kind::cell_parameter) {
+                set_cell_parameter(static_cast<std::size_t>(s.id), value);
+            } else {
+                automatic_.reset(static_cast<std::size_t>(s.id));
+                set_plant_parameter(static_cast<Var>(s.id), value);
+            }
+            if (automatic_.any()) settle_dynamic_defaults();
+        } catch (...) {
+            v_ = values;
+            automatic_ = automatic;
+            cell_ = cell;
+            cell_values_ = cell_values;
+            rectifier_rated_power_ = rating;
+            throw;
+        }
+    } else {
+        automatic_.reset(static_cast<std::size_t>(s.id));
+        v_[static_cast<std::size_t>(s.id)] = value;
+    }
     outputs_current_ = false;
+    // A dynamic run's next step starts a new segment at the new value (the same value keeps it).
+    if (!(value == before)) run_.open = 0;
 }
 
 void Block::set_plant_parameter(Var v, double value) {
@@ -262,6 +300,7 @@ void Block::set_spec(Spec spec) {
     if (!technology_has(*design_.technology, drive))
         throw Error(ErrorKind::invalid_argument, fmt::format("spec '{}' reads {}, which the {} technology does not have",
                                                              spec_name(spec), drive.name, design_.technology->name));
+    if (spec != spec_) run_.open = 0;
     spec_ = spec;
     outputs_current_ = false;
 }
@@ -288,25 +327,59 @@ SolveOutcome Block::solve() {
         evaluate_at(j, pr);
         fill_outputs(pr);
         fill_alarms(pr);
+        fill_steady_state_outputs();
         last_current_density_ = j;
-        has_solution_ = true;
-        outputs_current_ = true;
-        keep_state_for_rollback();
+        commit_good_state();
     } catch (...) {
-        // Roll back to the last consistent state: spec, inputs, parameters and outputs of the
-        // last good solve.
-        v_ = last_good_;
-        spec_ = last_good_spec_;
-        cell_ = last_good_cell_;
-        cell_values_ = last_good_cell_values_;
-        rectifier_rated_power_ = last_good_rating_;
-        outputs_current_ = last_good_outputs_current_;
+        roll_back();
         throw;
     }
     SolveOutcome out;
     out.warning = v_[alarm_any] > 0;
     if (out.warning) out.message = alarm_message();
     return out;
+}
+
+void Block::roll_back() {
+    // Back to the last consistent state: spec, inputs, parameters and outputs of the last good
+    // solve (or dynamic reset or step).
+    v_ = last_good_;
+    spec_ = last_good_spec_;
+    cell_ = last_good_cell_;
+    cell_values_ = last_good_cell_values_;
+    rectifier_rated_power_ = last_good_rating_;
+    outputs_current_ = last_good_outputs_current_;
+}
+
+void Block::commit_good_state() {
+    has_solution_ = true;
+    outputs_current_ = true;
+    last_good_ = v_;
+    last_good_spec_ = spec_;
+    last_good_rating_ = rectifier_rated_power_;
+    last_good_outputs_current_ = true;
+    if (last_good_cell_ != cell_) {
+        last_good_cell_ = cell_;
+        last_good_cell_values_ = cell_values_;
+    }
+}
+
+void Block::fill_steady_state_outputs() {
+    // A steady solve is production at in.temperature with the coolant taking the whole duty.
+    v_[stack_temperature] = v_[in_temperature];
+    v_[gas_h2_in_o2_stack] = v_[gas_h2_in_o2];
+    v_[heat_released] = v_[heat_duty] + v_[heat_loss];
+    v_[heat_heater] = 0.0;
+    v_[heat_to_coolant] = v_[heat_duty];
+    v_[coolant_flow] = kNaN;
+    v_[coolant_outlet_temperature] = kNaN;
+    v_[state_mode] = static_cast<double>(Mode::production);
+    v_[state_hours_operated] = v_[in_hours_operated];
+    v_[state_starts] = 0.0;
+}
+
+double Block::heat_loss_at(double temperature) const {
+    return v_[par_heat_loss_coefficient] * design_.stacks() * (temperature - v_[in_ambient_temperature]);
 }
 
 }  // namespace ely

@@ -8,13 +8,21 @@
 //
 // The work is split by concern: block.cpp (variables, set/get, parameters, the solve and its
 // rollback), spec_solve.cpp (the current density that meets the spec), streams.cpp (streams,
-// products, feeds, the energy balance, performance), alarms.cpp, report.cpp.
+// products, feeds, the energy balance, performance), alarms.cpp, report.cpp; the plant in time:
+// dynamics_defaults.cpp (what the technology and the plant's rating settle), dynamics.cpp (reset,
+// advance, the integrator and its events), run_summary.cpp, state_io.cpp (save and restore).
+//
+// Dynamic runs: Block(design) → set inputs → reset(t0) → set inputs → advance(dt) → … A run's
+// state is the stack temperature, the separator gas and the integrated totals, the current and
+// its ramp, the mode and its timers, the operating hours and starts (docs/dynamics.md).
+#include <bitset>
 #include <cstdint>
 #include <memory>
 #include <string>
 #include <string_view>
 #include <vector>
 
+#include "unit/dynamics.hpp"
 #include "thermo/species.hpp"
 #include "unit/plant.hpp"
 #include "unit/variables.hpp"
@@ -71,6 +79,35 @@ public:
     /// every variable with its value (null when not a number) and unit.
     std::string report_json() const;
 
+    // ---- The plant in time (docs/dynamics.md) ----
+    /// Starts a dynamic run at start_time (s) from the current inputs: the stack temperature takes
+    /// in.temperature, the operating hours in.hours_operated, and the plant is in the mode
+    /// in.mode_request asks for, at its setpoint, without a start-up sequence. Every output is
+    /// valid for that state. Throws, changing nothing, when that state cannot be evaluated.
+    SolveOutcome reset(double start_time);
+    /// Integrates the run over `step` seconds (>= 0) with the inputs held; the outputs are valid at
+    /// the end (a step of 0 applies new inputs, such as a mode request, at the current time). A
+    /// failed step rolls the block back like a failed solve: to its state before the call, without
+    /// the sets made since the last successful solve, reset or step. wrong_state before a reset.
+    SolveOutcome advance(double step);
+    bool running() const { return run_.running != 0; }
+    double time() const;  // s; wrong_state before a reset
+    const RunState& run_state() const { return run_; }
+    /// The figures of the run since its reset as JSON (run_summary.cpp): hydrogen, energy, water,
+    /// hours in each mode, starts, full-load hours, alarms, degradation. wrong_state before a reset.
+    std::string run_summary_json() const;
+    /// Everything a result of this block depends on (inputs, parameters, spec, outputs, warm starts,
+    /// the run) as bytes, headed by the producer's name and version and the plant's fingerprint.
+    std::string save_state(std::string_view producer) const;
+    /// Takes a state saved by a block of the same plant description and producer; throws
+    /// invalid_argument, changing nothing, for any other.
+    void restore_state(std::string_view bytes, std::string_view producer);
+    /// A hash of the plant description as this block settled it: blocks created from the same
+    /// description share it.
+    uint64_t design_fingerprint() const { return fingerprint_; }
+    /// Heat lost to ambient at a stack temperature, W (param.thermal.heat_loss_coefficient per
+    /// stack, to in.ambient_temperature).
+    double heat_loss_at(double temperature) const;
     /// The energy balance of an operating point, W: the one place that computes it (streams.cpp), for the
     /// steady outputs and for a dynamic layer that needs the heat released at the stack's temperature.
     struct EnergyBalance {
@@ -108,6 +145,65 @@ private:
     // alarms.cpp
     void fill_alarms(const PointResult& r);
     std::string alarm_message() const;
+    // block.cpp: the outputs of the plant in time that a steady solve also gives
+    void fill_steady_state_outputs();
+    void commit_good_state();
+
+    // dynamics_defaults.cpp
+    void settle_dynamic_defaults();
+    // state_io.cpp
+    static uint64_t fingerprint_of(const PlantDesign& design, std::size_t own_count);
+    // dynamics.cpp
+    struct RunWorkspace;
+    /// The scratch space of the integrator: a copy of a block starts with none (never shared).
+    class WorkspaceSlot {
+    public:
+        WorkspaceSlot();
+        WorkspaceSlot(const WorkspaceSlot&);
+        WorkspaceSlot& operator=(const WorkspaceSlot&);
+        WorkspaceSlot(WorkspaceSlot&&) noexcept;
+        WorkspaceSlot& operator=(WorkspaceSlot&&) noexcept;
+        ~WorkspaceSlot();
+        RunWorkspace& get();
+
+    private:
+        std::unique_ptr<RunWorkspace> w_;
+    };
+    void evaluate_point(double temperature, double hours, double current_density, PointResult& out);
+    void forget_rates();  // the remembered last point of the integrator no longer applies
+    double drive_quantity(const PointResult& r) const;  // spec_solve.cpp
+    double rated_current_density() const;
+    ModeRequest effective_request(double temperature);
+    void apply_request(double t);
+    void begin_start(double t, Mode mode);
+    void set_mode(double t, Mode mode);
+    void complete_startup(double t);
+    RunSegment make_segment(double t, double temperature) const;
+    void open_segment(double t);
+    double target_current_density(const RunSegment& seg, double temperature, double hours, PointResult& pr,
+                                  double tolerance, double* slope);
+    void rates_at(const RunSegment& seg, double t, const double* y, RunRates& out, bool final);
+    void derivative_of(const RunSegment& seg, const RunRates& r, const double* x, double* dxdt) const;
+    double event_function(int event, const RunSegment& seg, double t, const double* y);
+    bool event_detected(int event, const RunSegment& seg, const double* y, const RunRates& r) const;
+    void handle_event(int event, double t);
+    int extend_segment(double t_want, double& t_event);
+    void move_to(double t, bool need_current);
+    void account(const RunSegment& seg, double t0, double t1);
+    void finish_step_outputs();
+    SolveOutcome dynamic_outcome() const;
+    void roll_back();  // block.cpp: back to the last successful solve, reset or step
+
+public:
+    /// advance() with the outputs left unevaluated when `finish` is false (a profile run sets the
+    /// next inputs before it reads the outputs).
+    SolveOutcome advance(double step, bool finish);
+
+private:
+    RunState run_;
+    std::bitset<kVarCount> automatic_;  // values settled by settle_dynamic_defaults, settled again as parameters change
+    WorkspaceSlot workspace_;
+    uint64_t fingerprint_ = 0;
 
     // Ideal-gas molar enthalpies at the stack and gas-cooler temperatures, kept between solves (streams.cpp):
     // batches and spec solves at one temperature need them once (a cache of a pure function).

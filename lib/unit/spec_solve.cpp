@@ -42,6 +42,17 @@ void Block::evaluate_at(double j, PointResult& out) const {
     out.stack_power = out.stack_current * out.stack_voltage;
 }
 
+double Block::drive_quantity(const PointResult& pr) const {
+    switch (spec_) {
+        case Spec::current_density: return pr.cell.current_density;
+        case Spec::current: return pr.stack_current;
+        case Spec::power: return pr.stack_power;
+        case Spec::hydrogen_rate: return pr.cathode[kH2] * molar_mass::H2;
+        case Spec::voltage: break;
+    }
+    return pr.cell.voltage;
+}
+
 double Block::solve_current_density(double j_max) {
     const Var drive = spec_info(spec_).drive;
     const auto& info = variable_info(drive);
@@ -59,11 +70,7 @@ double Block::solve_current_density(double j_max) {
     PointResult pr;
     auto quantity = [&](double j) {
         evaluate_at(j, pr);
-        switch (spec_) {
-            case Spec::power: return pr.stack_power;
-            case Spec::hydrogen_rate: return pr.cathode[kH2] * molar_mass::H2;
-            default: return pr.cell.voltage;
-        }
+        return drive_quantity(pr);
     };
     if (target == 0.0 && spec_ != Spec::voltage) return 0.0;  // open circuit
     const double q_max = quantity(j_max);

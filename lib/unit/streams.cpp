@@ -215,7 +215,7 @@ Block::EnergyBalance Block::energy_balance(const PointResult& r, const PlantStre
     // A custom cell's species outside the component list (ions, metals, melts), at the stack temperature.
     h_out += c.other_species_enthalpy * r.area_total;
 
-    e.loss = v_[par_heat_loss_coefficient] * design_.stacks() * (t - v_[par_ambient_temperature]);
+    e.loss = heat_loss_at(t);
     if (c.heat_from_thermoneutral_voltage) {
         // A reaction table without enthalpy data: the electrical work above the given thermoneutral voltage,
         // N·I·(V − E_tn), its reaction taking liquid water at T; less what the water needs besides: warming the

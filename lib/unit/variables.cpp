@@ -79,6 +79,24 @@ constexpr Entry kTable[] = {
     {in_feed_temperature, input("in.feed_temperature", "K", "temperature of the make-up water (or brine, or steam) entering the plant")
         .within(273.15, 1273.15).starts(298.15).scaled(300).labelled("feed temperature").shown_in(display::degC)
         .configured_by("$.plant.thermal.feed_temperature")},
+    {in_coolant_temperature, input("in.coolant_temperature", "K",
+        "coolant temperature at the inlet of the plant's exchanger (dynamic runs)")
+        .above(0).starts(kNotGiven).scaled(300).labelled("coolant inlet temperature").shown_in(display::degC)
+        .configured_by("$.operating.coolant_temperature")},
+    {in_coolant_flow, input("in.coolant_flow", "kg/s",
+        "coolant flow to the plant's exchanger (dynamic runs): the flow itself when param.thermal.temperature_control "
+        "is 0; the flow through the fully open valve when the plant's temperature control throttles it (default: "
+        "sized so that it takes 110 % of the heat of rated load at the temperature setpoint)")
+        .at_least(0).starts(kNotGiven).scaled(10).labelled("coolant flow").shown_in(display::t_per_h)
+        .configured_by("$.operating.coolant_flow")},
+    {in_ambient_temperature, input("in.ambient_temperature", "K", "ambient temperature for the heat loss")
+        .within(223.15, 373.15).starts(298.15).scaled(300).labelled("ambient temperature").shown_in(display::degC)
+        .configured_by("$.plant.thermal.ambient_temperature")},
+    {in_mode_request, input("in.mode_request", "1",
+        "operating mode the host asks for in dynamic runs: 0 off, 1 hot standby, 2 production, 3 automatic "
+        "(production while the setpoint reaches the minimum load, else hot standby); steady solves ignore it")
+        .with(Variability::discrete).within(0, 3).starts(2).scaled(2).labelled("mode request")
+        .configured_by("$.operating.mode_request")},
 
     {par_cells, structural("param.cells", "1", "cells in series per stack")
         .within(1, 10000).scaled(100).labelled("cells per stack").configured_by("$.stack.cells")},
@@ -151,13 +169,16 @@ constexpr Entry kTable[] = {
         "area-specific-resistance rise per operating hour")
         .at_least(0).starts(0).scaled(1e-9).labelled("resistance degradation rate")
         .configured_by("$.plant.degradation.resistance_rate")},
+    {par_degradation_voltage_limit, tunable("param.degradation.voltage_limit", "V",
+        "cell voltage at the rated current density and the temperature setpoint at which the stacks are replaced: "
+        "the run summary gives the operating hours when it is reached; 0 = no limit")
+        .at_least(0).starts(0).scaled(2).labelled("stack replacement voltage")
+        .configured_by("$.plant.degradation.voltage_limit")},
     {par_heat_loss_coefficient, tunable("param.thermal.heat_loss_coefficient", "W/K",
-        "heat loss to ambient per stack and kelvin of stack-to-ambient difference")
-        .at_least(0).starts(0).scaled(10).labelled("heat loss coefficient per stack")
+        "heat loss to ambient per stack and kelvin of stack-to-ambient difference (default: the technology's value "
+        "per m2 of cell area, docs/dynamics.md)")
+        .at_least(0).starts(kNotGiven).scaled(10).labelled("heat loss coefficient per stack")
         .configured_by("$.plant.thermal.heat_loss_coefficient")},
-    {par_ambient_temperature, tunable("param.thermal.ambient_temperature", "K", "ambient temperature for the heat loss")
-        .within(223.15, 373.15).starts(298.15).scaled(300).labelled("ambient temperature").shown_in(display::degC)
-        .configured_by("$.plant.thermal.ambient_temperature")},
     {par_gas_cooler_temperature, tunable("param.thermal.gas_cooler_temperature", "K",
         "outlet temperature of the gas coolers: the wet product gases are cooled to it (not below the stack "
         "temperature's own value when that is lower) and the water they condense returns to the water loop "
@@ -165,6 +186,91 @@ constexpr Entry kTable[] = {
         "not below 25 degC, where the gas property fits start)")
         .within(298.15, 373.15).starts(303.15).scaled(300).labelled("gas cooler outlet temperature").shown_in(display::degC)
         .configured_by("$.plant.thermal.gas_cooler_temperature")},
+
+    {par_heat_capacity, tunable("param.heat_capacity", "J/K",
+        "heat capacity of the whole plant: stacks, electrolyte or water loop, separators (dynamic runs; default: "
+        "the technology's value per m2 of cell area)")
+        .above(0).starts(kNotGiven).scaled(1e7).labelled("heat capacity").shown_in(display::MJ_per_K)
+        .configured_by("$.plant.heat_capacity")},
+    {par_ramp_rate, tunable("param.ramp_rate", "1/s",
+        "fastest change of the current in dynamic runs, as a fraction of the rated current (param.limits.rated_current_density "
+        "x active area x stacks) per second (default: the technology's)")
+        .above(0).at_most(1e3).starts(kNotGiven).scaled(0.01).labelled("ramp rate").shown_in(display::percent_per_s)
+        .configured_by("$.plant.ramp_rate")},
+    {par_exchanger_ua, tunable("param.thermal.exchanger_ua", "W/K",
+        "conductance UA of the coolant exchanger, effectiveness 1 - exp(-UA/(coolant flow x heat capacity)); default: "
+        "sized with in.coolant_flow so that the open valve takes 110 % of the heat of rated load at the temperature "
+        "setpoint")
+        .at_least(0).starts(kNotGiven).scaled(1e5).labelled("exchanger UA").shown_in(display::kW_per_K)
+        .configured_by("$.plant.thermal.exchanger_ua")},
+    {par_coolant_heat_capacity, tunable("param.thermal.coolant_heat_capacity", "J/(kg K)",
+        "specific heat capacity of the coolant (default: the technology's coolant, water or air)")
+        .above(0).starts(kNotGiven).scaled(4000).labelled("coolant heat capacity")
+        .configured_by("$.plant.thermal.coolant_heat_capacity")},
+    {par_temperature_control, tunable("param.thermal.temperature_control", "1",
+        "1: the plant's controller (proportional-integral) throttles the coolant valve to hold the temperature "
+        "setpoint, and shuts it when the plant is off; 0: the coolant flows at in.coolant_flow whatever the "
+        "temperature and mode (the host controls it)")
+        .within(0, 1).starts(1).labelled("plant temperature control (0/1)")
+        .configured_by("$.plant.thermal.temperature_control")},
+    {par_temperature_setpoint, tunable("param.thermal.temperature_setpoint", "K",
+        "stack temperature the plant's controller holds with the coolant valve (default: the plant description's "
+        "operating temperature, operating.temperature)")
+        .above(0).starts(kNotGiven).scaled(350).labelled("temperature setpoint").shown_in(display::degC)
+        .configured_by("$.plant.thermal.temperature_setpoint")},
+    {par_control_band, tunable("param.thermal.control_band", "K",
+        "proportional band of the plant's temperature controllers: the coolant valve's proportional action moves it "
+        "through its full travel over this many kelvin, and the standby heater goes from off to full power over it "
+        "(a few kelvin, common practice)")
+        .within(0.01, 100).starts(2).scaled(2).labelled("temperature control band")
+        .configured_by("$.plant.thermal.control_band")},
+    {par_integral_time, tunable("param.thermal.integral_time", "s",
+        "integral time of the coolant valve's controller, which removes the offset of the proportional action (a "
+        "few minutes for a slow thermal loop, common practice)")
+        .above(0).starts(300).scaled(300).labelled("temperature control integral time").shown_in(display::minutes)
+        .configured_by("$.plant.thermal.integral_time")},
+    {par_holdup_time, tunable("param.separator.holdup_time", "s",
+        "gas hold-up time of the anode separator at rated load: its gas volume holds this many seconds of the anode "
+        "gas made at the rated current, and mixes as one volume (default: the technology's)")
+        .above(0).starts(kNotGiven).scaled(100).labelled("separator gas hold-up at rated load")
+        .configured_by("$.plant.separator.holdup_time")},
+    {par_standby_method, tunable("param.standby.method", "1",
+        "how hot standby keeps the plant warm: 0 an electric heater holding param.standby.temperature, 1 a minimum "
+        "current (param.standby.current_fraction)")
+        .within(0, 1).starts(0).labelled("standby by heater (0) or minimum current (1)")
+        .configured_by("$.plant.standby.method")},
+    {par_standby_temperature, tunable("param.standby.temperature", "K",
+        "temperature the heater holds in hot standby and after a start from cold (default: the temperature setpoint "
+        "less the control band)")
+        .above(0).starts(kNotGiven).scaled(350).labelled("standby temperature").shown_in(display::degC)
+        .configured_by("$.plant.standby.temperature")},
+    {par_heater_power, tunable("param.standby.heater_power", "W",
+        "rating of the standby heater (default: heats the plant from ambient to the standby temperature in the "
+        "technology's heat-up time while covering the heat loss there)")
+        .at_least(0).starts(kNotGiven).scaled(1e5).labelled("heater rating").shown_in(display::kW)
+        .configured_by("$.plant.standby.heater_power")},
+    {par_standby_current_fraction, tunable("param.standby.current_fraction", "1",
+        "current of hot standby by minimum current, as a fraction of the rated current (default: the minimum load "
+        "fraction)")
+        .within(0, 1).starts(kNotGiven).scaled(0.1).labelled("standby current").shown_in(display::percent)
+        .configured_by("$.plant.standby.current_fraction")},
+    {par_startup_cold_duration, tunable("param.startup.cold_duration", "s",
+        "shortest start from cold (purge, pressurisation) before current flows (default: the technology's)")
+        .at_least(0).starts(kNotGiven).scaled(600).labelled("start from cold, duration").shown_in(display::minutes)
+        .configured_by("$.plant.startup.cold_duration")},
+    {par_startup_warm_duration, tunable("param.startup.warm_duration", "s",
+        "duration of a start from hot standby (default: the technology's)")
+        .at_least(0).starts(kNotGiven).scaled(60).labelled("start from standby, duration").shown_in(display::minutes)
+        .configured_by("$.plant.startup.warm_duration")},
+    {par_startup_temperature, tunable("param.startup.temperature", "K",
+        "lowest stack temperature at which current may flow after a start from cold; the heater raises the plant "
+        "to it (default: the cell model's lowest temperature)")
+        .above(0).starts(kNotGiven).scaled(350).labelled("start from cold, temperature").shown_in(display::degC)
+        .configured_by("$.plant.startup.temperature")},
+    {par_dynamics_tolerance, tunable("param.dynamics.tolerance", "1",
+        "error tolerance of the time integration, relative (and absolute on states scaled to order one)")
+        .within(1e-12, 1e-3).starts(1e-6).scaled(1e-6).labelled("integration tolerance")
+        .configured_by("$.plant.dynamics.tolerance")},
 
     {cell_voltage, output("cell.voltage", "V", "cell voltage: reversible + activation (anode, cathode) + ohmic + concentration")
         .scaled(2).labelled("cell voltage")},
@@ -200,6 +306,9 @@ constexpr Entry kTable[] = {
         .scaled(200).labelled("stack voltage")},
     {stack_power, output("stack.power", "W", "DC power of all stacks together")
         .scaled(1e6).labelled("DC power").shown_in(display::MW)},
+    {stack_temperature, output("stack.temperature", "K",
+        "stack temperature: the thermal state of dynamic runs; in.temperature after a steady solve")
+        .scaled(350).labelled("stack temperature (state)").shown_in(display::degC)},
     {plant_power, output("plant.power", "W", "AC power drawn by the plant: stacks, rectifier losses, auxiliaries")
         .scaled(1e6).labelled("AC power (rectifier, auxiliaries)").shown_in(display::MW)},
     {plant_rectifier_loss, output("plant.rectifier_loss", "W", "rectifier losses")
@@ -279,7 +388,10 @@ constexpr Entry kTable[] = {
         "discharges: lost from the plant's water")
         .needing(H2).at_least(0).scaled(1e-3).labelled("water lost in the dryer").shown_in(display::kg_per_h)},
 
-    {gas_h2_in_o2, fraction("gas.h2_in_o2", "hydrogen in the dry anode gas").scaled(0.01).labelled("H2 in anode gas (dry)")},
+    {gas_h2_in_o2, fraction("gas.h2_in_o2", "hydrogen in the dry anode gas; in dynamic runs the gas of the anode separator, "
+        "which the alarms watch").scaled(0.01).labelled("H2 in anode gas (dry)")},
+    {gas_h2_in_o2_stack, fraction("gas.h2_in_o2_stack", "hydrogen in the dry anode gas as it leaves the stacks, before it "
+        "mixes into the separator's gas volume").scaled(0.01).labelled("H2 in anode gas leaving the stacks (dry)")},
     {gas_o2_in_h2, fraction("gas.o2_in_h2", "oxygen in the dry cathode gas").scaled(0.001).labelled("O2 in cathode gas (dry)")},
     {gas_o2_in_cl2, fraction("gas.o2_in_cl2", "oxygen in the dry chlorine (anode) gas").needing(BRINE).scaled(0.01).labelled("O2 in chlorine (dry)")},
 
@@ -300,6 +412,33 @@ constexpr Entry kTable[] = {
         "returned condensate (gas cooler temperature), and to heat the sweep air, to the stack temperature; no heat "
         "is recovered from the products here (heat.gas_coolers is what they give off)")
         .needing(STEAM).scaled(1e5).labelled("heat to raise steam and sweep air").shown_in(display::kW)},
+    {heat_released, output("heat.released", "W",
+        "heat released in the plant: the stacks' net heat at their temperature (electrical input less the enthalpy "
+        "rise from the feed at its own temperature to the products at stack temperature; heat.duty + heat.loss) plus "
+        "the heater's; param.heat_capacity x d(stack.temperature)/dt = heat.released - heat.to_coolant - heat.loss")
+        .scaled(1e5).labelled("heat released").shown_in(display::kW)},
+    {heat_heater, output("heat.heater", "W", "heat from the standby heater (part of heat.released and of plant.power)")
+        .scaled(1e4).labelled("heater").shown_in(display::kW)},
+    {heat_to_coolant, output("heat.to_coolant", "W",
+        "heat taken by the coolant; after a steady solve the heat duty, all of it removed by the coolant")
+        .scaled(1e5).labelled("heat to coolant").shown_in(display::kW)},
+    {coolant_flow, output("coolant.flow", "kg/s",
+        "coolant flow through the exchanger (dynamic runs; not a number after a steady solve)")
+        .at_least(0).scaled(10).labelled("coolant flow").shown_in(display::t_per_h)},
+    {coolant_outlet_temperature, output("coolant.outlet_temperature", "K",
+        "coolant temperature leaving the exchanger (dynamic runs; the inlet temperature when no coolant flows; not a "
+        "number after a steady solve)")
+        .scaled(300).labelled("coolant outlet temperature").shown_in(display::degC)},
+    {state_mode, output("state.mode", "1",
+        "operating mode: 0 off, 1 hot standby, 2 production, 3 starting from cold, 4 starting from hot standby "
+        "(2 after a steady solve)")
+        .with(Variability::discrete).within(0, 4).scaled(2).labelled("mode")},
+    {state_hours_operated, output("state.hours_operated", "h",
+        "operating hours, counted while current flows: in.hours_operated at reset, then accumulating; the "
+        "degradation's clock (in.hours_operated after a steady solve)")
+        .at_least(0).scaled(1e4).labelled("operating hours (state)")},
+    {state_starts, output("state.starts", "1", "start-ups since reset, from cold and from hot standby (0 after a steady solve)")
+        .with(Variability::discrete).at_least(0).scaled(10).labelled("start-ups")},
 
     {perf_specific_energy, output("perf.specific_energy", "J/kg", "DC stack energy per kg of hydrogen product")
         .needing(H2).scaled(2e8).labelled("specific energy, DC stack").shown_in(display::kWh_per_kg)},

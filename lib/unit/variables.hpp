@@ -29,20 +29,26 @@ enum Var : int {
     // inputs
     in_current_density, in_current, in_power, in_hydrogen_rate, in_voltage,
     in_temperature, in_pressure_cathode, in_pressure_anode, in_hours_operated, in_feed_temperature,
+    in_coolant_temperature, in_coolant_flow, in_ambient_temperature, in_mode_request,
     // parameters: structural (fixed by the plant description), then tunable
     par_cells, par_stacks, par_active_area,
     par_current_density_max, par_rated_current_density, par_min_load_fraction, par_temperature_max,
     par_rectifier_rated_power, par_rectifier_loss_no_load, par_rectifier_loss_linear, par_rectifier_loss_quadratic,
     par_auxiliaries_fixed, par_auxiliaries_proportional,
     par_alarms_h2_in_o2_warning, par_alarms_h2_in_o2_trip, par_alarms_lower_flammability_limit,
-    par_degradation_voltage_rate, par_degradation_resistance_rate,
-    par_heat_loss_coefficient, par_ambient_temperature, par_gas_cooler_temperature,
+    par_degradation_voltage_rate, par_degradation_resistance_rate, par_degradation_voltage_limit,
+    par_heat_loss_coefficient, par_gas_cooler_temperature,
+    // parameters of the plant in time (dynamic runs)
+    par_heat_capacity, par_ramp_rate, par_exchanger_ua, par_coolant_heat_capacity, par_temperature_control,
+    par_temperature_setpoint, par_control_band, par_integral_time, par_holdup_time,
+    par_standby_method, par_standby_temperature, par_heater_power, par_standby_current_fraction,
+    par_startup_cold_duration, par_startup_warm_duration, par_startup_temperature, par_dynamics_tolerance,
     // cell
     cell_voltage, cell_reversible_voltage, cell_thermoneutral_voltage, cell_activation_anode,
     cell_activation_cathode, cell_ohmic, cell_concentration, cell_degradation, cell_current_density,
     cell_faraday_efficiency, cell_caustic_efficiency, cell_chlorine_efficiency, cell_main_product_efficiency,
     // stack and plant
-    stack_current, stack_voltage, stack_power, plant_power,
+    stack_current, stack_voltage, stack_power, stack_temperature, plant_power,
     plant_rectifier_loss, plant_rectifier_efficiency, plant_auxiliary_power,
     // products and feeds (plant totals)
     product_hydrogen, product_oxygen, product_chlorine, product_caustic, product_caustic_solution,
@@ -54,9 +60,12 @@ enum Var : int {
     stream_anode_x_h2, stream_anode_x_cl2, stream_anode_x_h2o, stream_anode_x_n2,
     stream_condensate_mass_flow, stream_drain_mass_flow, stream_dryer_loss_mass_flow,
     // purity
-    gas_h2_in_o2, gas_o2_in_h2, gas_o2_in_cl2,
+    gas_h2_in_o2, gas_h2_in_o2_stack, gas_o2_in_h2, gas_o2_in_cl2,
     // heat
-    heat_duty, heat_loss, heat_gas_coolers, heat_feed_heating,
+    heat_duty, heat_loss, heat_gas_coolers, heat_feed_heating, heat_released, heat_heater, heat_to_coolant, coolant_flow,
+    coolant_outlet_temperature,
+    // the state of the plant in time
+    state_mode, state_hours_operated, state_starts,
     // performance
     perf_specific_energy, perf_specific_energy_plant, perf_efficiency_hhv, perf_efficiency_lhv,
     perf_specific_energy_chlorine, perf_load_fraction, perf_water_per_hydrogen,
@@ -69,6 +78,11 @@ enum Var : int {
 };
 constexpr Var alarm_first = alarm_h2_in_o2_warning;
 constexpr Var alarm_last = alarm_extrapolated;
+
+/// Operating modes (the values of state.mode) and mode requests (in.mode_request: the first three
+/// and automatic).
+enum class Mode : int { off = 0, standby = 1, production = 2, starting_cold = 3, starting_warm = 4 };
+enum class ModeRequest : int { off = 0, standby = 1, production = 2, automatic = 3 };
 
 /// The whole table, indexed by Var.
 const VariableInfo& variable_info(Var v);

@@ -140,6 +140,23 @@ std::string variables_markdown() {
                            t.rated_current_density > 0 ? fmt::format("{:g} A/cm2", t.rated_current_density * 1e-4)
                                                        : std::string("—"),
                            t.rated_current_density_source);
+    out += "\n";
+    out += "## Defaults of the plant in time, per technology\n\n"
+           "What a dynamic run takes from the technology where the plant description leaves a value out (the "
+           "registry's dynamic defaults; equations and sources in `docs/dynamics.md`). Per-area values are per m2 "
+           "of total cell area (cells x active area x stacks); the heat loss coefficient is per stack.\n\n"
+           "| technology | heat capacity, kJ/(K m2) | heat loss, W/(K m2) | coolant in, degC | coolant c_p, "
+           "J/(kg K) | coolant rise at rated load, K | ramp, %/s | separator hold-up, s | start from cold, "
+           "min | start from standby, s | heat-up time, h | source |\n"
+           "|---|---|---|---|---|---|---|---|---|---|---|---|\n";
+    for (const auto& t : technologies()) {
+        const DynamicDefaults& d = t.dynamics;
+        out += fmt::format("| {} | {:g} | {:.3g} | {:g} | {:g} | {:g} | {:g} | {:g} | {:g} | {:g} | {:g} | {} |\n", t.name,
+                           d.heat_capacity_per_area / 1e3, d.heat_loss_per_area, d.coolant_temperature - 273.15,
+                           d.coolant_heat_capacity, d.coolant_temperature_rise, d.ramp_rate * 100, d.holdup_time,
+                           d.cold_start_duration / 60, d.warm_start_duration, d.heat_up_time / 3600,
+                           markdown_cell(d.source));
+    }
     out += '\n';
 
     out += "## Summary layout\n\n"

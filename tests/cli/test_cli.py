@@ -118,8 +118,8 @@ def case_version_and_help():
 
 def case_usage_errors():
     expect_usage_error([], "elyblock: A subcommand is required (see 'elyblock --help')")
-    expect_usage_error(["frobnicate"], "elyblock: unknown command 'frobnicate'; the commands are solve, sweep, fit, "
-                                       "variables, water, version (see 'elyblock --help')")
+    expect_usage_error(["frobnicate"], "elyblock: unknown command 'frobnicate'; the commands are solve, sweep, "
+                                       "run, fit, variables, water, version (see 'elyblock --help')")
     expect_usage_error(["solve"], "elyblock: solve: config is required (see 'elyblock solve --help')")
     expect_usage_error(["solve", DEMO, "--bogus"],
                        "elyblock: solve: The following argument was not expected: --bogus (see 'elyblock solve --help')")
@@ -146,7 +146,8 @@ def case_usage_errors():
 
 def case_messages_name_options_and_variables():
     inputs = ("in.current_density, in.current, in.power, in.hydrogen_rate, in.voltage, in.temperature, "
-              "in.pressure_cathode, in.pressure_anode, in.hours_operated, in.feed_temperature")
+              "in.pressure_cathode, in.pressure_anode, in.hours_operated, in.feed_temperature, "
+              "in.coolant_temperature, in.coolant_flow, in.ambient_temperature, in.mode_request")
     sweep = ["sweep", DEMO, "--from", "1", "--to", "2"]
     expect_usage_error(sweep + ["--over", "cell.voltage"],
                        f"elyblock: sweep: --over: 'cell.voltage' is an output; sweep an input: {inputs} "
@@ -305,6 +306,7 @@ def pint_unit(symbol):
         return "dimensionless"
     if symbol == "%":
         return "percent"
+    symbol = symbol.replace("%", "percent")  # "%/s"
     return re.sub(r"([A-Za-z])(\d)", r"\1**\2", symbol).replace(" ", "*")
 
 

@@ -3,7 +3,10 @@
 #include <gmock/gmock.h>
 #include <gtest/gtest.h>
 
+#include <boost/json.hpp>
 #include <cmath>
+#include <fstream>
+#include <sstream>
 
 #include <initializer_list>
 #include <memory>
@@ -37,6 +40,23 @@ inline std::string technology_name(const ::testing::TestParamInfo<const Technolo
 
 /// The path of a file of the source tree (examples, docs).
 inline std::string source_path(const std::string& relative) { return std::string(ELY_SOURCE_DIR) + "/" + relative; }
+
+/// The text of a file.
+inline std::string read_file(const std::string& path) {
+    std::ifstream in(path);
+    std::stringstream ss;
+    ss << in.rdbuf();
+    return ss.str();
+}
+
+/// Merges the members of `extra` into `target`: objects member by member, other values replaced.
+inline void merge_json(boost::json::object& target, const boost::json::object& extra) {
+    for (const auto& kv : extra) {
+        boost::json::value& slot = target[kv.key()];
+        if (slot.is_object() && kv.value().is_object()) merge_json(slot.as_object(), kv.value().as_object());
+        else slot = kv.value();
+    }
+}
 
 /// |a/b − 1|
 inline double rel(double a, double b) { return std::fabs(a / b - 1.0); }

@@ -312,7 +312,7 @@ TEST(Config, FullConfigWithUnits) {
     EXPECT_DOUBLE_EQ(d.configured[par_degradation_resistance_rate], 1e-8);
     EXPECT_DOUBLE_EQ(d.configured[in_feed_temperature], 288.15);
     EXPECT_EQ(d.configured[par_heat_loss_coefficient], 200.0);
-    EXPECT_EQ(d.configured[par_ambient_temperature], 293.15);
+    EXPECT_EQ(d.configured[in_ambient_temperature], 293.15);
     EXPECT_FALSE(d.drag_water_returned);
     EXPECT_EQ(d.spec, Spec::power);
     EXPECT_EQ(d.configured[in_current_density], 2e4);

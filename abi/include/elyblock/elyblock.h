@@ -7,10 +7,11 @@
  * Conventions
  *  - Every fallible call returns an int32_t status: ELY_OK (0); > 0 a warning, the
  *    results are valid; < 0 an error: nothing was written to the out-parameters and the
- *    object is as it was before the call, with one exception: a failed ely_block_solve
- *    rolls the block back to its last successful solve, which discards the inputs and the
- *    spec set since then (see "the block" below). A batch with a bad argument writes
- *    nothing; a batch that ran (ELY_PARTIAL, ELY_ERR_CANCELLED) fills its arrays as it says.
+ *    object is as it was before the call, with one exception: a failed ely_block_solve (or
+ *    ely_block_advance) rolls the block back to its last successful solve (or reset or step),
+ *    which discards the inputs and the spec set since then (see "the block" below). A batch
+ *    or profile with a bad argument writes nothing; one that ran (ELY_PARTIAL,
+ *    ELY_ERR_CANCELLED) fills its arrays as it says.
  *  - ely_last_error() gives the message of the last failing call on the calling thread
  *    ("" after a call that succeeded). It also covers a failed create, which has no handle.
  *    A message is at most about 4 KiB; user text it quotes (a key, a unit, a name) is cut
@@ -322,6 +323,74 @@ ELY_API int32_t ely_fit_parameter(const ely_fit* fit, int32_t k, double* value, 
 ELY_API int32_t ely_fit_rmse(const ely_fit* fit, int32_t o, double* rmse, size_t* rows);
 
 ELY_API void ely_fit_destroy(ely_fit* fit); /* NULL is a no-op */
+
+/* ---- the block in time (dynamic runs) -------------------------------------------------
+ * Life cycle: create → set inputs → ely_block_reset(start time) → set inputs →
+ * ely_block_advance(step) → get outputs → set … → advance … → destroy. The state of a run: the
+ * stack temperature (stack.temperature), the gas of the anode separator (gas.h2_in_o2), the
+ * coolant valve's controller, the current and its ramp, the operating mode (state.mode) and its
+ * start-up timers, the operating hours (state.hours_operated) and start-ups, and the totals of
+ * the run summary. Inputs are held over a step; in.mode_request asks for a mode (0 off, 1 hot
+ * standby, 2 production, 3 automatic). Equations, defaults and sources: docs/dynamics.md.
+ * A step's status is like ely_block_solve's: ELY_WARNING when an alarm is raised at its end. A
+ * failed step (the stack temperature leaving the cell model's range, say) rolls the block back
+ * like a failed solve: to its state before the call, without the sets made since the last
+ * successful solve, reset or step. ely_block_solve stays available during a run (a steady solve
+ * at in.temperature; the run goes on from its own state at the next step). */
+
+/* Starts a run at start_time_s from the current inputs: the stack temperature takes
+ * in.temperature, the operating hours in.hours_operated, the plant is in the mode in.mode_request
+ * asks for, at its setpoint, without a start-up sequence (ask for off at the reset, then for
+ * production, to run a start from cold). Every output is valid for that state. A reset during a
+ * run starts a new run. */
+ELY_API int32_t ely_block_reset(ely_block* block, double start_time_s);
+
+/* Integrates the run over step_s seconds (finite, >= 0) with the inputs held; the outputs are
+ * valid at the end. A step of 0 applies the inputs at the current time (a mode request, a new
+ * setpoint that the current then ramps towards). ELY_ERR_WRONG_STATE before a reset. */
+ELY_API int32_t ely_block_advance(ely_block* block, double step_s);
+
+/* The time of the run, s. ELY_ERR_WRONG_STATE before a reset. */
+ELY_API int32_t ely_block_time(const ely_block* block, double* time_s);
+
+/* Everything a later result of the block depends on (inputs, parameters, spec, outputs, the warm
+ * start of the spec solve and the run with its integrator) as bytes, with the buffer protocol of
+ * ely_block_report_json (binary: *length is the number of bytes, with no terminator). A state
+ * restores into any block created from the same plant description by the same library version;
+ * the restored block continues bit for bit as the saved one would have. A state of another plant
+ * description, library version or ABI, or one cut short or changed, is refused with
+ * ELY_ERR_INVALID_ARGUMENT and a message saying which, and the block is left as it was. */
+ELY_API int32_t ely_block_save_state(const ely_block* block, void* buffer, size_t capacity, size_t* length);
+ELY_API int32_t ely_block_restore_state(ely_block* block, const void* buffer, size_t length);
+
+/* A whole profile in one call, laid out like ely_block_solve_batch: row k holds the time
+ * times[k] (s, non-decreasing) and the inputs input_indices[0..n_inputs) taking
+ * inputs[k*n_inputs + i]. The block is reset at times[0] with the inputs of row 0; then for each
+ * following row it advances to times[k] with the inputs of row k-1 held and applies the inputs of
+ * row k at times[k]. outputs[k*n_outputs + o] receives output_indices[o] at times[k] (with row k's
+ * inputs applied) and row_status[k] the row's status. The block is left running at the last row,
+ * and ely_block_run_summary_json reports the profile. Returns ELY_OK, ELY_WARNING (some row
+ * warned), ELY_PARTIAL (the run stopped at a row that failed: that row and those after it get its
+ * status and NaN outputs; the block is left running where it stopped, at the last time it reached
+ * with the inputs in force there, its outputs valid), the failing row's status when it is the
+ * first, ELY_ERR_CANCELLED (the progress callback asked to stop, even at its last call; rows not
+ * run get ELY_ERR_CANCELLED), or an error for bad arguments (nothing written, the block unchanged).
+ * Arguments are checked as for ely_block_solve_batch, and the times before anything runs.
+ * progress is called every 1024 rows and after the last; it may be NULL. */
+ELY_API int32_t ely_block_simulate(ely_block* block, size_t n_rows, const double* times, int32_t n_inputs,
+                                   const int32_t* input_indices, const double* inputs, int32_t n_outputs,
+                                   const int32_t* output_indices, double* outputs, int32_t* row_status,
+                                   ely_progress_fn progress, void* user);
+
+/* What the run made and used since its reset, as JSON text (UTF-8, NUL-terminated; the buffer
+ * protocol of ely_block_report_json): {"technology", "name", "start_time", "end_time",
+ * "figures": {name: {"value" (SI, null when not a number), "unit", "label", "display_unit",
+ * "display_scale", "display_offset"}}} with the figures hydrogen, energy_dc, energy_ac,
+ * specific_energy_dc and _ac, water, full_load_hours, hours in each mode, starts, hours at minimum
+ * load, the purity alarms with their hours, the degradation at the end and, when
+ * param.degradation.voltage_limit is set, the stack-replacement point (docs/dynamics.md lists them
+ * all). ELY_ERR_WRONG_STATE before a reset. */
+ELY_API int32_t ely_block_run_summary_json(const ely_block* block, char* buffer, size_t capacity, size_t* length);
 
 #ifdef __cplusplus
 }
