@@ -72,6 +72,11 @@ def vba(table):
             if len(text) > 255 or not text.isascii():  # Application.MacroOptions takes 255 characters;
                 raise SystemExit(f"{f['name']}: a text of functions.json is longer than 255 characters "
                                  f"or not ASCII (the VBA editor imports in the ANSI code page): {text}")
+        kinds = [a["kind"] for a in f["arguments"]]
+        if any(a.get("optional") for a in f["arguments"]) and any(k in REPEATED for k in kinds):
+            raise SystemExit(f"{f['name']}: an optional argument and a repeated one; VBA cannot declare both "
+                             f"(Optional cannot be used with ParamArray): make the optional one required "
+                             f"(an empty cell can stand for its absence)")
     out = [BEGIN]
     for f in table["functions"]:
         params, fixed, repeated = [], [], None

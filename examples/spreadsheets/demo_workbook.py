@@ -7,9 +7,12 @@ and checks every formula of it against the C interface. Sheets:
   Plant      the demo plant (examples/demo-plant.json) as keys and values; the range is named plant
   Point      one operating point: each function once, an error case of each kind and a warning
   Sweep      a power sweep: one formula per cell, names and units in the header row
+  Profile    two days of hourly power (invented for the demo) run through the plant in time:
+             ELYPROFILE over the rows, ELYSUMMARY's figures, with and without automatic standby
   Variables  ELYVARIABLES(plant)
 """
 import json
+import math
 import os
 
 HERE = os.path.dirname(os.path.abspath(__file__))
@@ -150,6 +153,47 @@ def sweep_sheet():
     return cells
 
 
+# Two days of hourly DC power and ambient temperature, invented for the demo (no measured data): a
+# lull below the plant's minimum load each night; the last row ends the run.
+PROFILE_MW = [18, 20, 22, 24, 24, 22, 19, 15, 11, 8, 5, 2.5, 1.5, 1, 1.2, 3, 6, 10, 14, 17, 20, 23, 25, 24] * 2 + [20]
+PROFILE_HEADER = ["time [h]", "power [MW]", "in.ambient_temperature [degC]"]
+PROFILE_OUTPUTS = ["product.hydrogen [kg/h]", "stack.temperature [degC]", "state.mode", "plant.power [MW]"]
+SUMMARY_FIGURES = ["hydrogen [t]", "energy_ac [MWh]", "specific_energy_ac [kWh/kg]", "water [t]", "full_load_hours",
+                   "starts", "hours_standby"]
+
+
+def profile_sheet():
+    plant = Name(PLANT_RANGE)
+    last = len(PROFILE_MW) + 1
+    profile = Ref(f"$A$1:$C${last}")
+    cells = {}
+    for k, name in enumerate(PROFILE_HEADER):
+        cells[cell_name(k, 1)] = name
+    for h, power in enumerate(PROFILE_MW):
+        cells[f"A{h + 2}"] = h
+        cells[f"B{h + 2}"] = power
+        cells[f"C{h + 2}"] = round(10.0 + 8.0 * math.sin(math.pi * (h % 24 - 8) / 12), 2)
+    for k, name in enumerate(PROFILE_OUTPUTS):
+        cells[cell_name(4 + k, 1)] = name
+    standby = ("in.mode_request", 3)  # automatic: hot standby while the power is below the minimum load
+    cells["E2"] = Formula(Call("ELYPROFILE", plant, profile, Ref("E1:H1"), *standby),
+                          array=(len(PROFILE_MW), len(PROFILE_OUTPUTS)))
+    cells["J1"] = "run summary with automatic standby (ELYSUMMARY over K2:K8)"
+    for k, name in enumerate(SUMMARY_FIGURES, start=2):
+        cells[f"J{k}"] = name
+    cells["K2"] = Formula(Call("ELYSUMMARY", plant, profile, Ref(f"J2:J{len(SUMMARY_FIGURES) + 1}"), *standby),
+                          array=(len(SUMMARY_FIGURES), 1))
+    cells["J10"] = "hydrogen [t] when the plant never stands by (it holds the minimum load)"
+    cells["K10"] = Formula(Call("ELYSUMMARY", plant, profile, "hydrogen [t]"))
+    cells["J11"] = "starts then"
+    cells["K11"] = Formula(Call("ELYSUMMARY", plant, profile, "starts"))
+    cells["J12"] = "the run's message (alarms of its rows)"
+    cells["K12"] = Formula(Call("ELYMESSAGE", "ELYPROFILE", plant, profile, Ref("E1:H1"), *standby))
+    cells["J13"] = "a misspelt figure: #VALUE!"
+    cells["K13"] = Formula(Call("ELYSUMMARY", plant, profile, "hydrogn"))
+    return cells
+
+
 def variables_sheet(variable_count):
     return {"A1": Formula(Call("ELYVARIABLES", Name(PLANT_RANGE)), array=(variable_count + 1, 5))}
 
@@ -158,5 +202,5 @@ def workbook(variable_count):
     """[(sheet name, {address: value or Formula})], and the named ranges {name: (sheet, range)}."""
     plant_cells, plant_range = plant_sheet()
     sheets = [("Plant", plant_cells), ("Point", point_sheet()), ("Sweep", sweep_sheet()),
-              ("Variables", variables_sheet(variable_count))]
+              ("Profile", profile_sheet()), ("Variables", variables_sheet(variable_count))]
     return sheets, {PLANT_RANGE: ("Plant", plant_range)}

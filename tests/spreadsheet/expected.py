@@ -9,6 +9,7 @@ rules of the functions (pairs of name and value, the spec chosen by its drive in
 brackets) are written again here from their description in functions.json.
 """
 import ctypes
+import json
 import math
 import re
 import subprocess
@@ -84,6 +85,52 @@ class Direct:
 
     def version(self):
         return self.lib.ely_version().decode()
+
+    def simulate(self, plant_path, spec, sets, times, input_names, values, output_names):
+        """ely_block_simulate on a block created from the plant file: (status, message, rows of
+        the outputs, run summary as parsed JSON or None)."""
+        lib = self.lib
+        lib.ely_block_simulate.restype = ctypes.c_int32
+        lib.ely_block_simulate.argtypes = [ctypes.c_void_p, ctypes.c_size_t] + [ctypes.c_void_p] * 10
+        lib.ely_block_simulate.argtypes[3] = ctypes.c_int32
+        lib.ely_block_simulate.argtypes[6] = ctypes.c_int32
+        lib.ely_block_run_summary_json.restype = ctypes.c_int32
+        lib.ely_block_run_summary_json.argtypes = [ctypes.c_void_p, ctypes.c_char_p, ctypes.c_size_t,
+                                                   ctypes.POINTER(ctypes.c_size_t)]
+        block = ctypes.c_void_p()
+        assert self.lib.ely_block_create_from_file(plant_path.encode(), ctypes.byref(block)) == 0
+        try:
+            if spec:
+                assert lib.ely_block_set_spec(block, spec.encode()) == 0
+            for name, value in sets:
+                assert lib.ely_block_set(block, self.index(block, name), value) == 0, name
+            n, n_in, n_out = len(times), len(input_names), len(output_names)
+            inputs = (ctypes.c_int32 * max(n_in, 1))(*[self.index(block, x) for x in input_names])
+            outputs = (ctypes.c_int32 * max(n_out, 1))(*[self.index(block, x) for x in output_names])
+            out = (ctypes.c_double * max(n * n_out, 1))()
+            status = (ctypes.c_int32 * n)()
+            result = lib.ely_block_simulate(block, n, (ctypes.c_double * n)(*times), n_in, inputs,
+                                            (ctypes.c_double * (n * n_in))(*values), n_out, outputs, out, status,
+                                            None, None)
+            message = lib.ely_last_error().decode() if result != 0 else ""
+            summary = None
+            if result >= 0:
+                length = ctypes.c_size_t()
+                assert lib.ely_block_run_summary_json(block, None, 0, ctypes.byref(length)) == 0
+                buffer = ctypes.create_string_buffer(length.value)
+                assert lib.ely_block_run_summary_json(block, buffer, length, ctypes.byref(length)) == 0
+                summary = json.loads(buffer.value.decode())
+            rows = [[out[k * n_out + o] for o in range(n_out)] for k in range(n)]
+            if result == 2:  # the run stopped: the status of the row that failed
+                result = (result, next(s for s in status if s < 0))
+            return result, message, rows, summary
+        finally:
+            self.lib.ely_block_destroy(block)
+
+    def index(self, block, name):
+        index = ctypes.c_int32()
+        assert self.lib.ely_block_find(block, name.encode(), ctypes.byref(index)) == 0, name
+        return index.value
 
     def solve_message(self, plant_path, spec, sets):
         """The message of a solve (the alarms of a warning), '' when it raised none."""
@@ -237,7 +284,57 @@ class Evaluator:
                 result = errors[0] if errors else Expected("value", [[e.value for e in row] for row in rows])
             result.warning = warning
             return result
+        if name in ("ELYPROFILE", "ELYSUMMARY"):
+            return self.run(name, args[0], args[1], args[2], list(args[3:]))
         raise ValueError(f"no expectation for {name}")
+
+    def run(self, name, plant, profile, names, pairs):
+        """A profile run: the profile's header read again here (the time first, then inputs; power,
+        current and current_density stand for in.x), units by pint, the run by ely_block_simulate."""
+        table = self.table(plant)
+        header = [name_unit(h) for h in profile[0]]
+        rows = [r for r in profile[1:] if any(c not in (None, "") for c in r)]
+        times = [convert(float(r[0]), header[0][1] or "s", "s") for r in rows]
+        columns = [x if "." in x else "in." + x for x, _ in header[1:]]
+        values = [convert(float(r[c]), header[c][1], table[columns[c - 1]]["unit"]) if header[c][1] else float(r[c])
+                  for r in rows for c in range(1, len(header))]
+        spec, sets = self.point(plant, pairs)
+        drives = [x[3:] for x in columns if x[3:] in SPECS]
+        if spec is None and drives:
+            spec = drives[0]
+        cells = [c for row in names for c in row] if isinstance(names, list) else [names]
+        wanted = [name_unit(c) for c in cells if c]
+        outputs = [x for x, _ in wanted] if name == "ELYPROFILE" else []
+        status, message, out, summary = self.direct.simulate(plant, spec, sets, times, columns, values, outputs)
+        if isinstance(status, tuple):  # stopped at a row: its values NaN, the summary an error
+            status, stopped = status
+            if name == "ELYSUMMARY":
+                return Expected("error", "num" if stopped in NUM_STATUSES else "value", message)
+        if status < 0:
+            return Expected("error", "num" if status in NUM_STATUSES else "value", message)
+        if name == "ELYPROFILE":
+            units = [(table[x]["unit"], u) for x, u in wanted]
+            result = Expected("value", [[convert(v, si, u) if u and math.isfinite(v) else v
+                                         for v, (si, u) in zip(row, units)] for row in out])
+        elif not wanted:
+            figures = [["figure", "value", "unit", "label"]]
+            for key, f in summary["figures"].items():
+                display = f["display_unit"] or f["unit"]
+                value = "" if f["value"] is None else f["value"] * f["display_scale"] + f["display_offset"]
+                figures.append([key, value, "" if display == "1" else display, f["label"]])
+            result = Expected("value", figures)
+        else:
+            figures = summary["figures"]
+            unknown = [x for x, _ in wanted if x not in figures]
+            if unknown:
+                return Expected("error", "value", f"figures: the run summary has no figure '{unknown[0]}'")
+            values = [convert(figures[x]["value"], figures[x]["unit"], u) if u else figures[x]["value"] for x, u in wanted]
+            if not isinstance(names, list):
+                result = Expected("value", values[0])  # one figure named in the formula
+            else:
+                result = Expected("value", [values] if len(names) == 1 else [[v] for v in values])
+        result.warning = message
+        return result
 
 
 def close(a, b, tolerance=1e-12):

@@ -240,3 +240,131 @@ def test_the_least_recently_used_plant_is_freed(functions):
     functions.call("ELYSOLVE", [plants[3], "product.hydrogen"])
     functions.call("ELYSOLVE", [plants[0], "product.hydrogen"])  # freed before: parsed again
     assert functions.cache.creations == 5
+
+
+# ---- profiles (ely_block_simulate) ------------------------------------------------------------------------
+def has_profiles():
+    return hasattr(sheet.library()._capi.lib, "ely_block_simulate")
+
+
+# An invented two-day profile for the demo (not measured data): hourly power in MW with a lull below
+# the minimum load, and the ambient temperature; the last row ends the run.
+PROFILE_HOURS = list(range(49))
+PROFILE_MW = [18, 20, 22, 24, 24, 22, 19, 15, 11, 8, 5, 2.5, 1.5, 1, 1.2, 3, 6, 10, 14, 17, 20, 23, 25, 24] * 2 + [20]
+PROFILE = (("time [h]", "power [MW]", "in.ambient_temperature [degC]"),) + tuple(
+    (float(h), float(p), 10.0 + 8.0 * math.sin(math.pi * (h % 24 - 8) / 12)) for h, p in zip(PROFILE_HOURS, PROFILE_MW))
+OUTPUTS = (("product.hydrogen [kg/h]", "stack.temperature [degC]", None, "state.mode"),)
+needs_profiles = pytest.mark.skipif("not has_profiles()", reason="the library has no ely_block_simulate")
+
+
+@needs_profiles
+@pytest.mark.parametrize("pairs", [[], ["in.mode_request", 3]], ids=["production", "automatic standby"])
+def test_profile_and_summary_equal_the_c_interface(functions, evaluator, pairs):
+    got = functions.call("ELYPROFILE", [DEMO_ROWS, PROFILE, OUTPUTS, *pairs])
+    want = evaluator.call("ELYPROFILE", [DEMO, [list(r) for r in PROFILE], [list(r) for r in OUTPUTS], *pairs])
+    assert want.kind == "value" and len(got) == len(PROFILE) - 1 and all(len(r) == 4 for r in got)
+    for g_row, w_row in zip(got, want.value):
+        assert g_row[2] == ""
+        assert all(expected.close(g, w) for g, w in zip(g_row[:2] + g_row[3:], w_row[:2] + w_row[2:]))
+    table = functions.call("ELYSUMMARY", [DEMO_ROWS, PROFILE, "", *pairs])
+    want = evaluator.call("ELYSUMMARY", [DEMO, [list(r) for r in PROFILE], [[""]], *pairs])
+    assert table[0] == ["figure", "value", "unit", "label"] and len(table) == len(want.value) > 10
+    for g_row, w_row in zip(table, want.value):
+        assert g_row[0] == w_row[0] and g_row[2:] == w_row[2:]
+        assert g_row[1] == w_row[1] if isinstance(w_row[1], str) else expected.close(g_row[1], w_row[1])
+    figures = (("hydrogen [t]", "energy_ac [MWh]", "specific_energy_ac [kWh/kg]", "water [kg]", "full_load_hours",
+                "starts"),)
+    got = functions.call("ELYSUMMARY", [DEMO, PROFILE, figures, *pairs])
+    want = evaluator.call("ELYSUMMARY", [DEMO, [list(r) for r in PROFILE], [list(r) for r in figures], *pairs])
+    assert all(expected.close(g, w) for g, w in zip(got[0], want.value[0])) and len(got[0]) == 6
+    if pairs:  # the lull below the minimum load: the plant stands by and starts again, once a day
+        assert got[0][5] == 2 and any(row[3] == 1 for row in functions.call("ELYPROFILE", [DEMO, PROFILE, OUTPUTS, *pairs]))
+    else:
+        assert got[0][5] == 0
+
+
+@needs_profiles
+def test_summary_hydrogen_is_the_integral_of_the_rows(functions):
+    """The run summary's hydrogen against the trapezoidal integral of the hydrogen rate over the
+    rows (a sum the functions do not make), with the profile's hours given minute by minute: rows
+    that repeat the inputs leave the run as it was, and the rates between them follow the ramps."""
+    minutes = [PROFILE[0]] + [(h + m / 60.0,) + PROFILE[1 + h][1:] for h in range(48) for m in range(60)] + [PROFILE[-1]]
+    minutes = tuple(minutes)
+    rates = [row[0] for row in functions.call("ELYPROFILE", [DEMO_ROWS, minutes, (("product.hydrogen [kg/h]",),)])]
+    times = [row[0] for row in minutes[1:]]
+    made = functions.call("ELYSUMMARY", [DEMO_ROWS, minutes, "hydrogen [kg]"])[0][0]
+    integral = sum((a + b) / 2 * (t1 - t0) for a, b, t0, t1 in zip(rates, rates[1:], times, times[1:]))
+    assert made == pytest.approx(integral, rel=2e-4)
+    assert functions.call("ELYSUMMARY", [DEMO_ROWS, PROFILE, "hydrogen [kg]"])[0][0] == pytest.approx(made, rel=1e-9)
+    duration = functions.call("ELYSUMMARY", [DEMO_ROWS, PROFILE, "duration [h]"])[0][0]
+    assert duration == pytest.approx(48.0, rel=1e-15)
+
+
+@needs_profiles
+def test_summary_cells_share_one_run(functions):
+    for figure in ("hydrogen", "water", "starts", "energy_dc"):
+        functions.call("ELYSUMMARY", [DEMO_ROWS, PROFILE, figure])
+    assert len(functions._runs) == 1
+    functions.call("ELYSUMMARY", [DEMO_ROWS, PROFILE, "hydrogen", "in.mode_request", 3])
+    assert len(functions._runs) == 2
+
+
+@needs_profiles
+def test_a_run_that_stops_gives_num_errors_after_its_last_good_row(functions, evaluator):
+    broken = PROFILE[:4] + ((3.0, -1.0, 10.0),) + PROFILE[5:]
+    rows = functions.call("ELYPROFILE", [DEMO_ROWS, broken, OUTPUTS])
+    assert all(math.isfinite(r[0]) for r in rows[:3]) and all(math.isnan(r[0]) for r in rows[3:])
+    message = functions.message("ELYPROFILE", [DEMO_ROWS, broken, OUTPUTS])
+    want = evaluator.call("ELYPROFILE", [DEMO, [list(r) for r in broken], [list(r) for r in OUTPUTS]])
+    assert message == want.warning and "the run stopped at row 3" in message and "in.power" in message
+    # A power below zero is a wrong input (#VALUE!), as in ELYSOLVE; the summary of a run cut short is an error.
+    f = failure(functions, "ELYSUMMARY", [DEMO_ROWS, broken, "hydrogen"])
+    assert f.kind == "value" and f.message == message
+    assert evaluator.call("ELYSUMMARY", [DEMO, [list(r) for r in broken], [["hydrogen"]]]).message == message
+    first = failure(functions, "ELYPROFILE", [DEMO_ROWS, ((PROFILE[0]), (0.0, -1.0, 10.0)), OUTPUTS])
+    assert first.kind == "value" and "in.power" in first.message
+    # Coolant at 200 degC: the stack heats beyond the cell model's range, which refuses the row (#NUM!).
+    refused = ((PROFILE[0] + ("in.coolant_temperature [degC]",),) +
+               tuple(row + (200.0 if 2 <= k <= 3 else 20.0,) for k, row in enumerate(PROFILE[1:])))
+    f = failure(functions, "ELYSUMMARY", [DEMO_ROWS, refused, "hydrogen"])
+    want = evaluator.call("ELYSUMMARY", [DEMO, [list(r) for r in refused], [["hydrogen"]]])
+    assert f.kind == want.value == "num" and f.message == want.message and "stack temperature" in f.message
+
+
+@needs_profiles
+def test_profile_errors_name_the_problem(functions):
+    header = PROFILE[0]
+    cases = [
+        ((header,), 'profile: a header row ("time [h]", "power [MW]", ...) and at least one row of values are needed'),
+        ((("power [MW]", "time [h]"), (1.0, 0.0)),
+         "profile: the first column is 'power [MW]'; it must be the time, e.g. \"time [h]\""),
+        ((("time [h]",), (0.0,)), "profile: no input column after the time"),
+        ((("time [h]", 5.0), (0.0, 1.0)), 'profile, column 2: the header 5.0 is not a column name such as "time [h]" or "power [MW]"'),
+        ((("time [h]", "cell.voltage"), (0.0, 1.0)),
+         "profile: column 'cell.voltage' is cell.voltage, an output; the columns after the time are inputs"),
+        ((("time [h]", "power [MW]", "in.power"), (0.0, 1.0, 1.0)),
+         "profile: column 'in.power' gives in.power a second time"),
+        ((("time [h]", "power [MW]"), (1.0, 5.0), (0.0, 5.0)),
+         "profile, row 3, column 'time [h]': the time goes back (rows are in time order)"),
+        ((("time [h]", "power [MW]"), (0.0, None)), "profile, row 2, column 'power [MW]': no value (an empty cell)"),
+        ((("time [h]", "power [MW]", "current"), (0.0, 5.0, 1e4)),
+         'in.power and in.current are the drive inputs of different specs: set one, or choose the spec with the '
+         'pair "spec"; "<name>"'),
+        ((("time [kg]", "power [MW]"), (0.0, 5.0)), None),  # the library: not a time unit
+        ((("time [h]", "pwr [MW]"), (0.0, 5.0)), "unknown variable 'in.pwr'"),
+    ]
+    for profile, message in cases:
+        f = failure(functions, "ELYSUMMARY", [DEMO_ROWS, profile, ""])
+        assert f.kind == "value", (profile, f.message)
+        if message is not None:
+            assert f.message == message
+        assert functions.message("ELYSUMMARY", [DEMO_ROWS, profile, ""]) == f.message
+    both = failure(functions, "ELYSUMMARY", [DEMO_ROWS, PROFILE, "", "in.ambient_temperature", "5 degC"])
+    assert both.message == ("in.ambient_temperature is a column of the profile ('in.ambient_temperature [degC]') "
+                            "and an input pair: give it once")
+    assert "no figure 'hydrogn'" in failure(functions, "ELYSUMMARY", [DEMO_ROWS, PROFILE, "hydrogn"]).message
+    assert "has no value for this run" in failure(functions, "ELYSUMMARY", [DEMO_ROWS, PROFILE, "first_trip_time"]).message
+    assert "a row or a column" in failure(functions, "ELYPROFILE", [DEMO_ROWS, PROFILE, (("a", "b"), ("c", "d"))]).message
+    # Trailing empty rows of a longer range are no rows of the profile.
+    padded = PROFILE + ((None, None, None), ("", None, ""))
+    assert functions.call("ELYPROFILE", [DEMO_ROWS, padded, OUTPUTS]) == functions.call("ELYPROFILE", [DEMO_ROWS, PROFILE, OUTPUTS])

@@ -6,6 +6,8 @@
 #   calls                 vba_calls.exe calls: every Declare called with its declared types
 #   points LINUX_PROGRAM  vba_calls.exe points: the 50 points of tests/windows through the Declares,
 #                         against their Linux run
+#   profile LINUX_LIBRARY vba_calls.exe profile: a two-day profile run and its summary through the
+#                         Declares, against the same run of the Linux library (profile_run.py)
 set -euo pipefail
 case_name=$1
 shift
@@ -36,6 +38,17 @@ points)
   (cd "$bin" && "$ELY_WINE" ./vba_calls.exe points "$(winpath "$ELY_WORK_DIR/plants.txt")" \
     "$(winpath "$ELY_WORK_DIR/linux.txt")") >"$ELY_WORK_DIR/windows.txt" || fail "vba_calls.exe points failed under Wine"
   /usr/bin/python3 "$ELY_SOURCE_DIR/tests/windows/compare_points.py" "$ELY_WORK_DIR/linux.txt" "$ELY_WORK_DIR/windows.txt"
+  ;;
+profile)
+  linux_library=$1
+  here=$ELY_SOURCE_DIR/tests/spreadsheet
+  plant=$ELY_SOURCE_DIR/examples/demo-plant.json
+  /usr/bin/python3 "$here/profile_run.py" write "$ELY_WORK_DIR/run.txt"
+  /usr/bin/python3 "$here/profile_run.py" linux "$ELY_WORK_DIR/run.txt" "$linux_library" "$plant" \
+    >"$ELY_WORK_DIR/linux.txt" || fail "the Linux run failed"
+  (cd "$bin" && "$ELY_WINE" ./vba_calls.exe profile "$(winpath "$plant")" "$(winpath "$ELY_WORK_DIR/run.txt")") |
+    tr -d '\r' >"$ELY_WORK_DIR/windows.txt" || fail "vba_calls.exe profile failed under Wine"
+  /usr/bin/python3 "$here/profile_run.py" compare "$ELY_WORK_DIR/linux.txt" "$ELY_WORK_DIR/windows.txt"
   ;;
 *)
   fail "unknown case $case_name"

@@ -17,6 +17,11 @@
  *                                  the block created from its text, solved point after point as
  *                                  points.c does, since a power-spec solve starts from the last
  *                                  solution); prints points.c's format for compare_points.py
+ *   vba_calls profile PLANT RUN    a profile run as the module's ELYPROFILE and ELYSUMMARY make it
+ *                                  (PLANT: a plant file; RUN: the run written by profile_run.py,
+ *                                  SI values): ely_block_simulate on a clone of the plant's block,
+ *                                  then ely_block_run_summary_json; prints the rows and the
+ *                                  summary for profile_run.py compare
  */
 #include <math.h>
 #include <stdio.h>
@@ -102,7 +107,7 @@ static wchar_t* from_utf8(intptr_t p) {
 
 /* Narrow copies for messages (ASCII texts only). */
 static const char* narrow(const wchar_t* w) {
-    static char buffers[4][4096];
+    static char buffers[4][32768];
     static int next = 0;
     char* out = buffers[next++ % 4];
     size_t k = 0;
@@ -343,6 +348,44 @@ static int run_calls(const wchar_t* plant_path) {
           "ely_block_create_from_file(%s): %s", narrow(plant_path), last_error());
     free(path);
     CHECK(CALL(ely_block_solve)(from_file) >= 0, "solve the file's plant: %s", last_error());
+
+    /* The plant in time: a reset, a step, its time; a state saved, the run gone on, the state
+     * restored and the same step again gives the same temperature bit for bit. */
+    const int32_t i_temperature = find(from_file, L"stack.temperature");
+    CHECK(CALL(ely_block_reset)(from_file, 3600.0) >= 0, "reset: %s", last_error());
+    CHECK(CALL(ely_block_advance)(from_file, 1800.0) >= 0, "advance: %s", last_error());
+    double now = 0.0, t1 = 0.0, t2 = -1.0;
+    CHECK(CALL(ely_block_time)(from_file, &now) == ELY_OK && now == 5400.0, "time %.17g", now);
+    intptr_t state_length = 0;
+    CHECK(CALL(ely_block_save_state)(from_file, 0, 0, &state_length) == ELY_OK && state_length > 0, "state size: %s",
+          last_error());
+    char* state = malloc((size_t)state_length);
+    CHECK(CALL(ely_block_save_state)(from_file, (intptr_t)state, state_length, &state_length) == ELY_OK, "save: %s",
+          last_error());
+    CHECK(CALL(ely_block_set)(from_file, find(from_file, L"in.current_density"), 8000.0) == ELY_OK, "set");
+    CHECK(CALL(ely_block_advance)(from_file, 900.0) >= 0 && CALL(ely_block_get)(from_file, i_temperature, &t1) == ELY_OK,
+          "advance after the save: %s", last_error());
+    CHECK(CALL(ely_block_restore_state)(from_file, (intptr_t)state, state_length) == ELY_OK, "restore: %s", last_error());
+    CHECK(CALL(ely_block_set)(from_file, find(from_file, L"in.current_density"), 8000.0) == ELY_OK, "set");
+    CHECK(CALL(ely_block_advance)(from_file, 900.0) >= 0 && CALL(ely_block_get)(from_file, i_temperature, &t2) == ELY_OK &&
+              t2 == t1, "the restored run: %.17g, the run saved: %.17g", t2, t1);
+    free(state);
+    /* A profile in one call, arrays ByRef by their first element; its summary lasts the profile.
+     * Row k's outputs are at times[k] with its inputs just applied: the current then ramps, so
+     * row 1 still shows the first hour's hydrogen and row 2 the second hour's (Faraday's law: in
+     * the ratio of the current densities, within the Faraday efficiency's change). */
+    double times[3] = {0.0, 3600.0, 7200.0}, densities[3] = {15000.0, 10000.0, 20000.0}, made[3] = {0, 0, 0};
+    int32_t rows_in[1] = {find(from_file, L"in.current_density")}, rows_out[1] = {i_h2}, row_status[3] = {9, 9, 9};
+    const int32_t ran = CALL(ely_block_simulate)(from_file, 3, times, 1, rows_in, densities, 1, rows_out, made,
+                                                 row_status, 0, 0);
+    CHECK(ran >= 0 && ran != ELY_PARTIAL && row_status[2] >= 0 && close_rel(made[1], made[0], 1e-6) &&
+              close_rel(made[2], made[0] * 10000.0 / 15000.0, 0.02),
+          "simulate: %d %s; hydrogen %.6g %.6g %.6g", (int)ran, last_error(), made[0], made[1], made[2]);
+    wchar_t* summary = text_of(vba.ely_block_run_summary_json, from_file);
+    mark("ely_block_run_summary_json");
+    CHECK(wcsstr(summary, L"\"end_time\":7200,") != NULL && wcsstr(summary, L"\"hydrogen\":{\"value\":") != NULL,
+          "run summary %.200s", narrow(summary));
+    free(summary);
     CALL(ely_block_destroy)(from_file);
 
     int used = 0;
@@ -463,6 +506,81 @@ static int run_points(const char* plants_path, const char* linux_path) {
     return failures ? 1 : 0;
 }
 
+/* ---- profile: a run as ELYPROFILE and ELYSUMMARY make it ------------------------------------------- */
+static int run_profile(const wchar_t* plant_path, const char* run_path) {
+    FILE* f = fopen(run_path, "rb");
+    if (!f) return fprintf(stderr, "cannot open %s\n", run_path), 2;
+    static char line[65536];
+    char spec[64] = "";
+    wchar_t* inputs[16];
+    wchar_t* outputs[16];
+    int n_in = 0, n_out = 0;
+    size_t n = 0, capacity = 0;
+    double *times = NULL, *values = NULL;
+    while (fgets(line, sizeof line, f)) {
+        char* save = NULL;
+        const char* word = strtok_s(line, " \r\n", &save);
+        if (!word) continue;
+        if (strcmp(word, "spec") == 0) {
+            snprintf(spec, sizeof spec, "%s", strtok_s(NULL, " \r\n", &save));
+        } else if (strcmp(word, "inputs") == 0 || strcmp(word, "outputs") == 0) {
+            const char* name;
+            while ((name = strtok_s(NULL, " \r\n", &save)) != NULL) {
+                if (word[0] == 'i' && n_in < 16) inputs[n_in++] = widen(name);
+                if (word[0] == 'o' && n_out < 16) outputs[n_out++] = widen(name);
+            }
+        } else if (strcmp(word, "row") == 0) {
+            if (n == capacity) {
+                capacity = capacity ? 2 * capacity : 64;
+                times = realloc(times, capacity * sizeof *times);
+                values = realloc(values, capacity * (size_t)n_in * sizeof *values);
+            }
+            times[n] = strtod(strtok_s(NULL, " \r\n", &save), NULL);
+            for (int i = 0; i < n_in; ++i) values[n * (size_t)n_in + (size_t)i] = strtod(strtok_s(NULL, " \r\n", &save), NULL);
+            ++n;
+        }
+    }
+    fclose(f);
+    if (n == 0 || n_in == 0 || n_out == 0) return fprintf(stderr, "no rows, inputs or outputs in %s\n", run_path), 2;
+    /* The module's PlantBlock (a block per plant file, never run) and CloneWithInputs. */
+    char* path = utf8(plant_path);
+    intptr_t base = 0, work = 0;
+    CHECK(CALL(ely_block_create_from_file)((intptr_t)path, &base) == ELY_OK, "plant: %s", last_error());
+    free(path);
+    CHECK(CALL(ely_block_clone)(base, &work) == ELY_OK, "clone: %s", last_error());
+    if (spec[0]) {
+        wchar_t* wide = widen(spec);
+        char* bytes = utf8(wide);
+        CHECK(CALL(ely_block_set_spec)(work, (intptr_t)bytes) == ELY_OK, "spec %s: %s", spec, last_error());
+        free(bytes);
+        free(wide);
+    }
+    int32_t in_index[16], out_index[16];
+    for (int i = 0; i < n_in; ++i) in_index[i] = find(work, inputs[i]);
+    for (int o = 0; o < n_out; ++o) out_index[o] = find(work, outputs[o]);
+    double* out = calloc(n * (size_t)n_out, sizeof *out);
+    int32_t* status = calloc(n, sizeof *status);
+    const int32_t result = CALL(ely_block_simulate)(work, (intptr_t)n, times, n_in, in_index, values, n_out, out_index,
+                                                    out, status, 0, 0);
+    printf("status %d\n", (int)result);
+    for (size_t k = 0; k < n; ++k) {
+        printf("row %u %d", (unsigned)k, (int)status[k]);
+        for (int o = 0; o < n_out; ++o) printf(" %.17g", out[k * (size_t)n_out + (size_t)o]);
+        printf("\n");
+    }
+    if (result >= 0) {
+        wchar_t* summary = text_of(vba.ely_block_run_summary_json, work);
+        printf("summary %s\n", narrow(summary));
+        free(summary);
+    }
+    CALL(ely_block_destroy)(work);
+    CALL(ely_block_destroy)(base);
+    free(times); free(values); free(out); free(status);
+    for (int i = 0; i < n_in; ++i) free(inputs[i]);
+    for (int o = 0; o < n_out; ++o) free(outputs[o]);
+    return failures ? 1 : 0;
+}
+
 int main(void) {
     int argc = 0;
     LPWSTR* wargv = CommandLineToArgvW(GetCommandLineW(), &argc);
@@ -474,6 +592,11 @@ int main(void) {
         WideCharToMultiByte(CP_ACP, 0, wargv[3], -1, linux_path, MAX_PATH, NULL, NULL);
         return run_points(plants_path, linux_path);
     }
-    fprintf(stderr, "usage: vba_calls calls PLANT | points PLANTS LINUX_OUTPUT\n");
+    if (argc == 4 && wcscmp(wargv[1], L"profile") == 0) {
+        char run_path[MAX_PATH];
+        WideCharToMultiByte(CP_ACP, 0, wargv[3], -1, run_path, MAX_PATH, NULL, NULL);
+        return run_profile(wargv[2], run_path);
+    }
+    fprintf(stderr, "usage: vba_calls calls PLANT | points PLANTS LINUX_OUTPUT | profile PLANT RUN\n");
     return 2;
 }

@@ -29,6 +29,13 @@ REPEATED = ("pairs", "rest")  # argument kinds that repeat (the last argument of
 SPECS = ("current_density", "current", "power", "hydrogen_rate", "voltage")
 CAUSALITIES = ("input", "output", "parameter")
 VARIABLES_HEADER = ["name", "unit", "causality", "display unit", "description"]
+SUMMARY_HEADER = ["figure", "value", "unit", "label"]
+# A profile's columns: the time first, then inputs; these words stand for the drive inputs (as in
+# the command line's `elyblock run`), any other name without a dot x for in.x.
+TIME_COLUMNS = ("time", "t")
+PROFILE_WORDS = {"power": "in.power", "current": "in.current", "current_density": "in.current_density"}
+ELY_WARNING, ELY_PARTIAL = 1, 2
+RUN_CACHE = 8  # profile runs kept (a sheet reads one run's summary in several cells)
 
 
 class Failure(Exception):
@@ -76,6 +83,15 @@ def library():
         lib.ely_convert_unit.restype = ctypes.c_int32
         lib.ely_convert_unit.argtypes = [ctypes.c_double, ctypes.c_char_p, ctypes.c_char_p,
                                          ctypes.POINTER(ctypes.c_double)]
+        # The profile run (the dynamic block), in libraries that have it.
+        if hasattr(lib, "ely_block_simulate"):
+            lib.ely_block_simulate.restype = ctypes.c_int32
+            lib.ely_block_simulate.argtypes = [ctypes.c_void_p, ctypes.c_size_t, ctypes.c_void_p, ctypes.c_int32,
+                                               ctypes.c_void_p, ctypes.c_void_p, ctypes.c_int32, ctypes.c_void_p,
+                                               ctypes.c_void_p, ctypes.c_void_p, ctypes.c_void_p, ctypes.c_void_p]
+            lib.ely_block_run_summary_json.restype = ctypes.c_int32
+            lib.ely_block_run_summary_json.argtypes = [ctypes.c_void_p, ctypes.c_char_p, ctypes.c_size_t,
+                                                       ctypes.POINTER(ctypes.c_size_t)]
         # A solve with an alarm raised is not a failure: its message is ELYMESSAGE's to give.
         warnings.filterwarnings("ignore", category=elyblock.ElyWarning)
         _elyblock = elyblock
@@ -334,6 +350,7 @@ class Functions:
         self.by_name = {f["name"]: f for f in self.table["functions"]}
         self.cache = BlockCache()
         self._range_texts = {}  # range (tuple of rows) -> ("text", JSON)
+        self._runs = collections.OrderedDict()  # profile runs: arguments -> (block, result)
         self._lock = threading.RLock()
 
     # -- dispatch --
@@ -397,12 +414,8 @@ class Functions:
         base = self._block(plant, base_dir)
         names = self.cache.variables(base)
         spec, sets = self._inputs(base, names, inputs)
-        work = base.clone()
+        work = self._clone(base, spec, sets)
         try:
-            if spec is not None:
-                work.set_spec(spec)
-            for name, value in sets:
-                work[name] = value
             work.solve()
         except ely.ElyError as e:
             work.close()
@@ -411,6 +424,26 @@ class Functions:
 
     def _inputs(self, block, names, inputs):
         """The spec to set (or None) and the (name, SI value) pairs of the inputs' pairs."""
+        spec, sets, drives = self._pairs(block, names, inputs)
+        return _chosen_spec(spec, drives), sets
+
+    @staticmethod
+    def _clone(base, spec, sets):
+        """A clone of base with the spec (unless None) and the (name, SI value) inputs set."""
+        work = base.clone()
+        try:
+            if spec is not None:
+                work.set_spec(spec)
+            for name, value in sets:
+                work[name] = value
+        except library().ElyError as e:
+            work.close()
+            raise _failure(e) from None
+        return work
+
+    def _pairs(self, block, names, inputs):
+        """The spec the pair "spec" names (or None), the (name, SI value) pairs, and the drive inputs
+        set ({spec: input name})."""
         if len(inputs) % 2:
             raise Failure(f"inputs come in pairs of name and value; the last name, "
                           f"{_quoted(inputs[-1])}, has no value")
@@ -424,33 +457,28 @@ class Functions:
             name, unit = name_and_unit(raw_name, f"input name {k // 2 + 1}")
             if "." not in name:  # a keyword: x stands for in.x, or param.x when there is no in.x
                 name = "in." + name if "in." + name in names or "param." + name not in names else "param." + name
-            si = self._si_value(value, unit, self._variable(block, names, name), raw_name)
+            si = self._si_value(value, unit, self._variable(block, names, name).unit, raw_name)
             sets.append((name, si))
             if name.startswith("in.") and name[3:] in SPECS:
                 drives[name[3:]] = name
-        if spec is None and drives:
-            if len(drives) > 1:
-                raise Failure(f"{' and '.join(drives.values())} are the drive inputs of different specs: "
-                              f"set one, or choose the spec with the pair \"spec\"; \"<name>\"")
-            spec = next(iter(drives))
-        return spec, sets
+        return spec, sets, drives
 
     @staticmethod
-    def _si_value(value, unit, variable, raw_name):
+    def _si_value(value, unit, si_unit, raw_name):
         if is_empty(value):
             raise Failure(f"{raw_name}: no value (an empty cell)")
         if isinstance(value, bool):
             value = float(value)
         if isinstance(value, str):
             text = value.strip()
-            number = parse_quantity(text, unit or variable.unit)
+            number = parse_quantity(text, unit or si_unit)
         elif isinstance(value, (int, float)):
             number = float(value)
             if not math.isfinite(number):
                 raise Failure(f"{raw_name}: the value is not a finite number")
         else:
             raise Failure(f"{raw_name}: cannot read the value {value!r}")
-        return convert_unit(number, unit, variable.unit) if unit else number
+        return convert_unit(number, unit, si_unit) if unit else number
 
     @staticmethod
     def _variable(block, names, name):
@@ -472,6 +500,110 @@ class Functions:
         except library().ElyError as e:
             raise _failure(e) from None
         return convert_unit(value, variable.unit, unit) if unit else value
+
+    # -- profiles --
+    def _profile(self, block, names, profile):
+        """A profile range: (times in s, [(input name, written header)], row-major SI values)."""
+        rows = rows_of(profile)
+        while rows and all(is_empty(c) for c in rows[-1]):  # a range longer than its rows
+            rows.pop()
+        if len(rows) < 2:
+            raise Failure("profile: a header row (\"time [h]\", \"power [MW]\", ...) and at least one row of "
+                          "values are needed")
+        header = []
+        for c, cell in enumerate(rows[0], start=1):
+            if is_empty(cell) or not isinstance(cell, str):
+                raise Failure(f"profile, column {c}: the header {_quoted(cell)} is not a column name such as "
+                              f"\"time [h]\" or \"power [MW]\"")
+            name, unit = name_and_unit(cell, f"profile, column {c}")
+            header.append((cell.strip(), name, unit))
+        if header[0][1] not in TIME_COLUMNS:
+            raise Failure(f"profile: the first column is '{header[0][0]}'; it must be the time, e.g. \"time [h]\"")
+        if len(header) < 2:
+            raise Failure("profile: no input column after the time")
+        time_unit = header[0][2] or "s"
+        convert_unit(1.0, time_unit, "s")  # a unit of time, or the library's message
+        columns = []
+        for written, name, unit in header[1:]:
+            full = PROFILE_WORDS.get(name) or (name if "." in name else "in." + name)
+            variable = self._variable(block, names, full)
+            if variable.causality != "input":
+                raise Failure(f"profile: column '{written}' is {full}, a{'n' if variable.causality[0] == 'o' else ''} "
+                              f"{variable.causality}; the columns after the time are inputs")
+            if any(full == c[0] for c in columns):
+                raise Failure(f"profile: column '{written}' gives {full} a second time")
+            columns.append((full, written, unit, variable.unit))
+        times, values = [], []
+        for r, row in enumerate(rows[1:], start=2):
+            for c, cell in enumerate(row):
+                where = f"profile, row {r}, column '{header[c][0]}'"
+                if c == 0:
+                    t = self._si_value(cell, time_unit, "s", where)
+                    if times and t < times[-1]:
+                        raise Failure(f"{where}: the time goes back (rows are in time order)")
+                    times.append(t)
+                else:
+                    _, _, unit, si_unit = columns[c - 1]
+                    values.append(self._si_value(cell, unit, si_unit, where))
+        return times, [(c[0], c[1]) for c in columns], values
+
+    def _run(self, plant, profile, inputs, outputs, base_dir):
+        """The plant run through the profile by ely_block_simulate (on a clone of its block):
+        (status, message, outputs' rows, row statuses, run summary as parsed JSON). Kept for
+        RUN_CACHE calls of the same arguments."""
+        base = self._block(plant, base_dir)
+        key = None
+        try:
+            key = (_frozen(profile), _frozen(inputs), tuple(outputs))
+            hash(key)
+        except TypeError:  # a cell value that does not hash
+            key = None
+        cached = self._runs.get(key) if key is not None else None
+        if cached is not None and cached[0] is base:
+            self._runs.move_to_end(key)
+            return cached[1]
+        ely = library()
+        lib = ely._capi.lib
+        if not hasattr(lib, "ely_block_simulate"):
+            raise Failure(f"the elyblock library {ely._capi.library_path} (version {ely.library_version}) has no "
+                          f"profile runs (ely_block_simulate); use a newer one")
+        names = self.cache.variables(base)
+        times, columns, values = self._profile(base, names, profile)
+        spec, sets, drives = self._pairs(base, names, inputs)
+        for name, written in columns:
+            if any(name == n for n, _ in sets):
+                raise Failure(f"{name} is a column of the profile ('{written}') and an input pair: give it once")
+            if name[3:] in SPECS:
+                drives[name[3:]] = name
+        spec = _chosen_spec(spec, drives)
+        for name in outputs:
+            self._variable(base, names, name)
+        out_index = [base._index(name) for name in outputs]
+        in_index = [base._index(name) for name, _ in columns]
+        n, n_in, n_out = len(times), len(in_index), len(out_index)
+        work = self._clone(base, spec, sets)
+        try:
+            out = (ctypes.c_double * (n * n_out))() if n_out else None
+            row_status = (ctypes.c_int32 * n)()
+            status = lib.ely_block_simulate(
+                work._live(), n, (ctypes.c_double * n)(*times), n_in, (ctypes.c_int32 * n_in)(*in_index),
+                (ctypes.c_double * (n * n_in))(*values), n_out, (ctypes.c_int32 * n_out)(*out_index) if n_out else None,
+                out, row_status, None, None)
+            message = (ely._capi.last_error() or ely._capi.status_text(status)) if status != 0 else ""
+            if status < 0:
+                raise _failure(ely.errors.error_for(status, message))
+            summary = json.loads(ely._capi.buffer_text(lib.ely_block_run_summary_json, work._live()))
+        except ely.ElyError as e:
+            raise _failure(e) from None
+        finally:
+            work.close()
+        rows = [list(out[k * n_out:(k + 1) * n_out]) for k in range(n)] if n_out else [[] for _ in range(n)]
+        result = (status, message, rows, list(row_status), summary)
+        if key is not None:
+            self._runs[key] = (base, result)
+            while len(self._runs) > RUN_CACHE:
+                self._runs.popitem(last=False)
+        return result
 
     # -- the functions of the table (one method each, named after it) --
     def _elysolve(self, base_dir, plant, variable, *inputs):
@@ -515,6 +647,91 @@ class Functions:
 
     def _elyversion(self, base_dir):
         return library().library_version, ""
+
+    def _elyprofile(self, base_dir, plant, profile, outputs, *inputs):
+        cells = rows_of(outputs)
+        if len(cells) > 1 and len(cells[0]) > 1:
+            raise Failure(f"outputs: a row or a column of variable names, not a range of {len(cells)} x {len(cells[0])}")
+        wanted = [c for row in cells for c in row]
+        if all(is_empty(c) for c in wanted):
+            raise Failure("outputs: no variable names")
+        base = self._block(plant, base_dir)
+        names = self.cache.variables(base)
+        columns = []  # (variable name, SI unit, unit asked for) or None for an empty cell
+        for cell in wanted:
+            if is_empty(cell):
+                columns.append(None)
+            elif not isinstance(cell, str):
+                raise Failure(f"outputs: expected names, got the number {number_text(cell)}")
+            else:
+                name, unit = name_and_unit(cell, "outputs")
+                columns.append((name, self._variable(base, names, name).unit, unit))
+        status, message, rows, _, _ = self._run(plant, profile, inputs, tuple(c[0] for c in columns if c), base_dir)
+        result = []
+        for row in rows:
+            values, k = [], 0
+            for column in columns:
+                if column is None:
+                    values.append("")
+                    continue
+                value = row[k]
+                k += 1
+                if column[2] and math.isfinite(value):
+                    value = convert_unit(value, column[1], column[2])
+                values.append(value)
+            result.append(values)
+        return result, message
+
+    def _elysummary(self, base_dir, plant, profile, figures, *inputs):
+        cells = rows_of(figures)
+        status, message, _, row_status, summary = self._run(plant, profile, inputs, (), base_dir)
+        if status == ELY_PARTIAL:  # the summary of a run cut short is not the profile's
+            stopped = next(s for s in row_status if s < 0)
+            raise Failure(message, "num" if stopped in _NUM_STATUSES else "value")
+        table = summary["figures"]
+        if all(is_empty(c) for row in cells for c in row):
+            rows = [list(SUMMARY_HEADER)]
+            for name, f in table.items():
+                display = f.get("display_unit") or f["unit"]
+                value = "" if f["value"] is None else f["value"] * f["display_scale"] + f["display_offset"]
+                rows.append([name, value, "" if display == "1" else display, f["label"]])
+            return rows, message
+        result = []
+        for row in cells:
+            out = []
+            for cell in row:
+                if is_empty(cell):
+                    out.append("")
+                    continue
+                if not isinstance(cell, str):
+                    raise Failure(f"figures: expected names, got the number {number_text(cell)}")
+                name, unit = name_and_unit(cell, "figures")
+                figure = table.get(name)
+                if figure is None:
+                    raise Failure(f"figures: the run summary has no figure '{name}'; it has {', '.join(table)}")
+                if figure["value"] is None:
+                    raise Failure(f"figures: {name} ({figure['label']}) has no value for this run")
+                value = figure["value"]
+                out.append(convert_unit(value, figure["unit"], unit) if unit else value)
+            result.append(out)
+        return result, message
+
+
+def _chosen_spec(spec, drives):
+    """The spec named by the pair "spec", else the one whose drive input is set ({spec: input})."""
+    if spec is None and drives:
+        if len(drives) > 1:
+            raise Failure(f"{' and '.join(drives.values())} are the drive inputs of different specs: "
+                          f"set one, or choose the spec with the pair \"spec\"; \"<name>\"")
+        spec = next(iter(drives))
+    return spec
+
+
+def _frozen(value):
+    """A host value (ranges as nested tuples or lists) as something that hashes."""
+    if isinstance(value, (tuple, list)):
+        return tuple(_frozen(v) for v in value)
+    return value
 
 
 def _quoted(value):

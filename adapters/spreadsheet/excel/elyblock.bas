@@ -1,5 +1,6 @@
 Attribute VB_Name = "elyblock"
-' elyblock worksheet functions for Excel: ELYSOLVE, ELYOUTPUTS, ELYVARIABLES, ELYVERSION, ELYMESSAGE.
+' elyblock worksheet functions for Excel: ELYSOLVE, ELYOUTPUTS, ELYPROFILE, ELYSUMMARY, ELYVARIABLES,
+' ELYVERSION, ELYMESSAGE.
 '
 ' The same functions, with the same arguments, as the elyblock add-in of LibreOffice Calc (one
 ' table, adapters/spreadsheet/functions.json). They call elyblock.dll, the library's 64-bit
@@ -58,6 +59,13 @@ Private Declare PtrSafe Function ely_fit_plant_json Lib "elyblock.dll" (ByVal fi
 Private Declare PtrSafe Function ely_fit_parameter Lib "elyblock.dll" (ByVal fit As LongPtr, ByVal k As Long, ByRef value As Double, ByRef standard_error As Double) As Long
 Private Declare PtrSafe Function ely_fit_rmse Lib "elyblock.dll" (ByVal fit As LongPtr, ByVal o As Long, ByRef rmse As Double, ByRef rows As LongPtr) As Long
 Private Declare PtrSafe Sub ely_fit_destroy Lib "elyblock.dll" (ByVal fit As LongPtr)
+Private Declare PtrSafe Function ely_block_reset Lib "elyblock.dll" (ByVal block As LongPtr, ByVal start_time_s As Double) As Long
+Private Declare PtrSafe Function ely_block_advance Lib "elyblock.dll" (ByVal block As LongPtr, ByVal step_s As Double) As Long
+Private Declare PtrSafe Function ely_block_time Lib "elyblock.dll" (ByVal block As LongPtr, ByRef time_s As Double) As Long
+Private Declare PtrSafe Function ely_block_save_state Lib "elyblock.dll" (ByVal block As LongPtr, ByVal buffer As LongPtr, ByVal capacity As LongPtr, ByRef length As LongPtr) As Long
+Private Declare PtrSafe Function ely_block_restore_state Lib "elyblock.dll" (ByVal block As LongPtr, ByVal buffer As LongPtr, ByVal length As LongPtr) As Long
+Private Declare PtrSafe Function ely_block_simulate Lib "elyblock.dll" (ByVal block As LongPtr, ByVal n_rows As LongPtr, ByRef times As Double, ByVal n_inputs As Long, ByRef input_indices As Long, ByRef inputs As Double, ByVal n_outputs As Long, ByRef output_indices As Long, ByRef outputs As Double, ByRef row_status As Long, ByVal progress As LongPtr, ByVal user As LongPtr) As Long
+Private Declare PtrSafe Function ely_block_run_summary_json Lib "elyblock.dll" (ByVal block As LongPtr, ByVal buffer As LongPtr, ByVal capacity As LongPtr, ByRef length As LongPtr) As Long
 
 ' ---- Windows --------------------------------------------------------------------------------------
 Private Declare PtrSafe Function LoadLibraryW Lib "kernel32" (ByVal lpLibFileName As LongPtr) As LongPtr
@@ -82,6 +90,9 @@ Private Const XL_ERR_NUM As Long = 2036
 Private Const ERR_VALUE As Long = vbObjectError + 513
 Private Const ERR_NUM As Long = vbObjectError + 514
 Private Const CACHE_CAPACITY As Long = 32
+Private Const ELY_WARNING As Long = 1
+Private Const ELY_PARTIAL As Long = 2
+Private Const RUN_CAPACITY As Long = 8
 
 ' The folder of elyblock.dll; empty: beside the workbook that calls, beside this module's
 ' workbook, then Windows' DLL search path.
@@ -91,6 +102,7 @@ Private loaded As Boolean
 Private blocks As Object      ' plant key -> block handle (never solved: calls work on clones)
 Private units As Object       ' plant key -> Dictionary of variable name -> SI unit
 Private working As LongPtr    ' the clone of the running call, freed when it fails
+Private runs As Object        ' profile runs by their arguments: Array(status, message, outputs, row statuses, summary)
 Private specs As Variant
 
 ' Frees the plants kept by the functions (they are parsed again when next used).
@@ -103,6 +115,7 @@ Public Sub ElyblockClear()
     End If
     Set blocks = Nothing
     Set units = Nothing
+    Set runs = Nothing
 End Sub
 
 ' ---- calls -----------------------------------------------------------------------------------------
@@ -175,6 +188,8 @@ Private Function ElyRun(ByVal name As String, ByVal args As Variant, ByRef messa
     Select Case name
     Case "ELYSOLVE": ElyRun = RunSolve(args, message)
     Case "ELYOUTPUTS": ElyRun = RunOutputs(args, message)
+    Case "ELYPROFILE": ElyRun = RunProfile(args, message)
+    Case "ELYSUMMARY": ElyRun = RunSummary(args, message)
     Case "ELYVARIABLES": ElyRun = RunVariables(args)
     Case "ELYVERSION": ElyRun = FromUtf8(ely_version())
     Case "ELYMESSAGE": ElyRun = RunMessage(args)
@@ -542,11 +557,41 @@ End Function
 ' A clone of the plant's block with the inputs (args from first on) set and solved; warning gets the
 ' alarms of a solve that raised some. The clone is `working` until the caller frees it.
 Private Function Solved(ByVal args As Variant, ByVal first As Long, ByRef warning As String, ByRef table As Object) As LongPtr
-    Dim key As String, base As LongPtr, k As Long, spec As String, drives As String, rawName As String
-    Dim name As String, unit As String, value As Variant, si As Double, index As Long, status As Long
-    Dim names() As String, values() As Double, n As Long, bytes() As Byte
+    Dim key As String, base As LongPtr, k As Long, spec As String, drives As String, status As Long
+    Dim names() As String, values() As Double, n As Long
     base = PlantBlock(args(0), key)
     Set table = units(key)
+    ReadPairs args, first, base, table, spec, names, values, n, drives
+    spec = ChosenSpec(spec, drives)
+    CloneWithInputs base, spec, names, values, n
+    status = ely_block_solve(working)
+    If status > 0 Then warning = FromUtf8(ely_last_error())
+    Check status
+    Solved = working
+End Function
+
+' `working`: a clone of base with the spec (unless "") and the n inputs set.
+Private Sub CloneWithInputs(ByVal base As LongPtr, ByVal spec As String, ByRef names() As String, ByRef values() As Double, ByVal n As Long)
+    Dim k As Long, index As Long, bytes() As Byte
+    Check ely_block_clone(base, working)
+    If spec <> "" Then
+        bytes = Utf8(spec)
+        Check ely_block_set_spec(working, VarPtr(bytes(0)))
+    End If
+    For k = 0 To n - 1
+        bytes = Utf8(names(k))
+        Check ely_block_find(working, VarPtr(bytes(0)), index)
+        Check ely_block_set(working, index, values(k))
+    Next
+End Sub
+
+' The pairs of name and value of args from first on: the spec of a pair "spec" (or ""), the n inputs
+' to set (names and SI values), and the drive inputs among them (" and " between them).
+Private Sub ReadPairs(ByVal args As Variant, ByVal first As Long, ByVal base As LongPtr, ByVal table As Object, _
+                      ByRef spec As String, ByRef names() As String, ByRef values() As Double, ByRef n As Long, _
+                      ByRef drives As String)
+    Dim k As Long, rawName As String, name As String, unit As String, value As Variant
+    n = 0
     If ((UBound(args) - first + 1) Mod 2) <> 0 Then
         Fail "inputs come in pairs of name and value; the last name, " & Quoted(args(UBound(args))) & ", has no value"
     End If
@@ -568,32 +613,27 @@ Private Function Solved(ByVal args As Variant, ByVal first As Long, ByRef warnin
             names(n) = name
             values(n) = SIValue(value, unit, table(name), rawName)
             n = n + 1
-            If IsDrive(name) And InStr(" and " & drives & " and ", " and " & name & " and ") = 0 Then
-                drives = drives & IIf(drives <> "", " and ", "") & name
-            End If
+            AddDrive drives, name
         End If
     Next
+End Sub
+
+' The spec the pair "spec" names, else the one whose drive input is set (drives: " and " between them).
+Private Function ChosenSpec(ByVal spec As String, ByVal drives As String) As String
     If spec = "" And drives <> "" Then
         If InStr(drives, " and ") > 0 Then
             Fail drives & " are the drive inputs of different specs: set one, or choose the spec with the pair ""spec""; ""<name>"""
         End If
         spec = Mid$(drives, 4)
     End If
-    Check ely_block_clone(base, working)
-    If spec <> "" Then
-        bytes = Utf8(spec)
-        Check ely_block_set_spec(working, VarPtr(bytes(0)))
-    End If
-    For k = 0 To n - 1
-        bytes = Utf8(names(k))
-        Check ely_block_find(working, VarPtr(bytes(0)), index)
-        Check ely_block_set(working, index, values(k))
-    Next
-    status = ely_block_solve(working)
-    If status > 0 Then warning = FromUtf8(ely_last_error())
-    Check status
-    Solved = working
+    ChosenSpec = spec
 End Function
+
+Private Sub AddDrive(ByRef drives As String, ByVal name As String)
+    If IsDrive(name) And InStr(" and " & drives & " and ", " and " & name & " and ") = 0 Then
+        drives = drives & IIf(drives <> "", " and ", "") & name
+    End If
+End Sub
 
 Private Function IsDrive(ByVal name As String) As Boolean
     Dim s As Variant
@@ -694,6 +734,403 @@ Private Function RunOutputs(ByVal args As Variant, ByRef warning As String) As V
     RunOutputs = out
 End Function
 
+' ---- profiles (the plant in time, ely_block_simulate) ----------------------------------------------------
+' The run of args(0)'s plant through the profile args(1) with the pairs of args from first on, reading
+' the variables outputNames (n_out of them; may be 0): Array(status, message, outputs(row, k) SI,
+' row statuses, summary as a Dictionary). Kept for RUN_CAPACITY calls with the same arguments.
+Private Function ProfileRun(ByVal args As Variant, ByVal first As Long, ByRef outputNames() As String, _
+                            ByVal nOut As Long) As Variant
+    Dim key As String, base As LongPtr, table As Object, cells As Variant, runKey As String
+    Dim spec As String, drives As String, names() As String, values() As Double, n As Long
+    Dim header() As String, columnUnits() As String, columns() As String, timeUnit As String, rawName As String
+    Dim nRows As Long, nIn As Long, r As Long, c As Long, k As Long, t As Double, name As String, unit As String
+    Dim times() As Double, inputs() As Double, inIndex() As Long, outIndex() As Long, outputs() As Double
+    Dim status() As Long, result As Long, message As String, bytes() As Byte, rows() As Double, summary As Object
+    base = PlantBlock(args(0), key)
+    Set table = units(key)
+    cells = Cells2D(args(1))
+    runKey = key & vbLf & CellsKey(cells) & vbLf & Join(outputNames, vbTab)
+    For k = first To UBound(args)
+        runKey = runKey & vbLf & CellsKey(Cells2D(args(k)))
+    Next
+    If runs Is Nothing Then Set runs = NewDictionary()
+    If runs.Exists(runKey) Then
+        ProfileRun = runs(runKey)
+        Exit Function
+    End If
+    ' The rows in use: trailing empty rows of a longer range are none.
+    nRows = UBound(cells, 1)
+    Do While nRows > 0
+        For c = 1 To UBound(cells, 2)
+            If Not IsBlank(cells(nRows, c)) Then Exit Do
+        Next
+        nRows = nRows - 1
+    Loop
+    If nRows < 2 Then Fail "profile: a header row (""time [h]"", ""power [MW]"", ...) and at least one row of values are needed"
+    nIn = UBound(cells, 2) - 1
+    ReDim header(0 To nIn)
+    ReDim columnUnits(0 To nIn)
+    ReDim columns(0 To IIf(nIn > 0, nIn - 1, 0))
+    For c = 0 To nIn
+        If IsBlank(cells(1, c + 1)) Or VarType(cells(1, c + 1)) <> vbString Then
+            Fail "profile, column " & (c + 1) & ": the header " & Quoted(cells(1, c + 1)) & " is not a column name such as ""time [h]"" or ""power [MW]"""
+        End If
+        header(c) = Trim$(cells(1, c + 1))
+        NameAndUnit header(c), name, unit, "profile, column " & (c + 1)
+        columnUnits(c) = unit
+        If c = 0 Then
+            If name <> "time" And name <> "t" Then Fail "profile: the first column is '" & header(0) & "'; it must be the time, e.g. ""time [h]"""
+            timeUnit = IIf(unit = "", "s", unit)
+            ConvertUnit 1, timeUnit, "s"
+        Else
+            Select Case name
+            Case "power", "current", "current_density": name = "in." & name
+            Case Else: If InStr(name, ".") = 0 Then name = "in." & name
+            End Select
+            If Not table.Exists(name) Then UnknownName base, name
+            For k = 0 To c - 2
+                If columns(k) = name Then Fail "profile: column '" & header(c) & "' gives " & name & " a second time"
+            Next
+            columns(c - 1) = name
+        End If
+    Next
+    If nIn = 0 Then Fail "profile: no input column after the time"
+    ReDim times(0 To nRows - 2)
+    ReDim inputs(0 To (nRows - 1) * nIn - 1)
+    For r = 2 To nRows
+        For c = 0 To nIn
+            rawName = "profile, row " & r & ", column '" & header(c) & "'"
+            If c = 0 Then
+                t = SIValue(cells(r, 1), timeUnit, "s", rawName)
+                If r > 2 Then
+                    If t < times(r - 3) Then Fail rawName & ": the time goes back (rows are in time order)"
+                End If
+                times(r - 2) = t
+            Else
+                inputs((r - 2) * nIn + c - 1) = SIValue(cells(r, c + 1), columnUnits(c), table(columns(c - 1)), rawName)
+            End If
+        Next
+    Next
+    ReadPairs args, first, base, table, spec, names, values, n, drives
+    For c = 0 To nIn - 1
+        For k = 0 To n - 1
+            If names(k) = columns(c) Then Fail columns(c) & " is a column of the profile ('" & header(c + 1) & "') and an input pair: give it once"
+        Next
+        AddDrive drives, columns(c)
+    Next
+    spec = ChosenSpec(spec, drives)
+    CloneWithInputs base, spec, names, values, n
+    ReDim inIndex(0 To nIn - 1)
+    For c = 0 To nIn - 1
+        bytes = Utf8(columns(c))
+        Check ely_block_find(working, VarPtr(bytes(0)), inIndex(c))
+    Next
+    ' The arrays go ByRef by their first element; with no outputs, one element each that is not used.
+    ReDim outIndex(0 To IIf(nOut > 0, nOut - 1, 0))
+    ReDim outputs(0 To IIf(nOut > 0, (nRows - 1) * nOut - 1, 0))
+    For k = 0 To nOut - 1
+        If Not table.Exists(outputNames(k)) Then UnknownName base, outputNames(k)
+        bytes = Utf8(outputNames(k))
+        Check ely_block_find(working, VarPtr(bytes(0)), outIndex(k))
+    Next
+    ReDim status(0 To nRows - 2)
+    result = ely_block_simulate(working, nRows - 1, times(0), nIn, inIndex(0), inputs(0), nOut, outIndex(0), _
+                                outputs(0), status(0), 0, 0)
+    If result <> 0 Then message = FromUtf8(ely_last_error())
+    Check result
+    Set summary = JsonParse(SummaryJson(working))
+    ely_block_destroy working
+    working = 0
+    If runs.count >= RUN_CAPACITY Then Set runs = NewDictionary()
+    runs.Add runKey, Array(result, message, outputs, status, summary)
+    ProfileRun = runs(runKey)
+End Function
+
+' The cells of a 2-D array as one text (for the key of a run).
+Private Function CellsKey(ByVal cells As Variant) As String
+    Dim parts() As String, r As Long, c As Long, k As Long
+    ReDim parts(0 To UBound(cells, 1) * UBound(cells, 2) - 1)
+    For r = 1 To UBound(cells, 1)
+        For c = 1 To UBound(cells, 2)
+            parts(k) = VarType(cells(r, c)) & ":" & CStr(cells(r, c))
+            k = k + 1
+        Next
+    Next
+    CellsKey = UBound(cells, 2) & "|" & Join(parts, vbTab)
+End Function
+
+Private Function SummaryJson(ByVal block As LongPtr) As String
+    Dim length As LongPtr, bytes() As Byte
+    Check ely_block_run_summary_json(block, 0, 0, length)
+    ReDim bytes(0 To CLng(length) - 1)
+    Check ely_block_run_summary_json(block, VarPtr(bytes(0)), length, length)
+    SummaryJson = FromUtf8(VarPtr(bytes(0)))
+End Function
+
+' An error raised for the row a run stopped at: #NUM! when the model refused it.
+Private Sub FailStopped(ByVal message As String, ByVal status As Variant)
+    Dim k As Long
+    For k = 0 To UBound(status)
+        If status(k) < 0 Then Fail message, status(k) = -2 Or status(k) = -4 Or status(k) = -5
+    Next
+    Fail message
+End Sub
+
+' The names of a row or column of variable names "name [unit]" (empty cells: "").
+Private Sub OutputColumns(ByVal cells As Variant, ByVal table As Object, ByVal base As LongPtr, ByRef wanted() As String, _
+                          ByRef wantedUnits() As String, ByRef names() As String, ByRef nOut As Long)
+    Dim r As Long, c As Long, k As Long, name As String, unit As String
+    If UBound(cells, 1) > 1 And UBound(cells, 2) > 1 Then
+        Fail "outputs: a row or a column of variable names, not a range of " & UBound(cells, 1) & " x " & UBound(cells, 2)
+    End If
+    ReDim wanted(0 To UBound(cells, 1) * UBound(cells, 2) - 1)
+    ReDim wantedUnits(0 To UBound(wanted))
+    ReDim names(0 To UBound(wanted))
+    nOut = 0
+    For r = 1 To UBound(cells, 1)
+        For c = 1 To UBound(cells, 2)
+            If IsBlank(cells(r, c)) Then
+                wanted(k) = ""
+            ElseIf VarType(cells(r, c)) <> vbString Then
+                Fail "outputs: expected names, got the number " & NumberText(cells(r, c))
+            Else
+                NameAndUnit cells(r, c), name, unit, "outputs"
+                If Not table.Exists(name) Then UnknownName base, name
+                wanted(k) = name
+                wantedUnits(k) = unit
+                names(nOut) = name
+                nOut = nOut + 1
+            End If
+            k = k + 1
+        Next
+    Next
+    If nOut = 0 Then Fail "outputs: no variable names"
+End Sub
+
+Private Function RunProfile(ByVal args As Variant, ByRef warning As String) As Variant
+    Dim key As String, base As LongPtr, table As Object, wanted() As String, wantedUnits() As String
+    Dim names() As String, nOut As Long, run As Variant, outputs As Variant, out() As Variant, rows As Long
+    Dim r As Long, k As Long, j As Long, value As Double
+    base = PlantBlock(args(0), key)
+    Set table = units(key)
+    OutputColumns Cells2D(args(2)), table, base, wanted, wantedUnits, names, nOut
+    run = ProfileRun(args, 3, names, nOut)
+    warning = run(1)
+    outputs = run(2)
+    rows = UBound(run(3)) + 1
+    ReDim out(1 To rows, 1 To UBound(wanted) + 1)
+    For r = 0 To rows - 1
+        j = 0
+        For k = 0 To UBound(wanted)
+            If wanted(k) = "" Then
+                out(r + 1, k + 1) = ""
+            Else
+                value = outputs(r * nOut + j)
+                j = j + 1
+                If run(3)(r) < 0 Then
+                    out(r + 1, k + 1) = CVErr(XL_ERR_NUM)  ' rows after the run stopped
+                ElseIf wantedUnits(k) <> "" Then
+                    out(r + 1, k + 1) = ConvertUnit(value, table(wanted(k)), wantedUnits(k))
+                Else
+                    out(r + 1, k + 1) = value
+                End If
+            End If
+        Next
+    Next
+    RunProfile = out
+End Function
+
+Private Function RunSummary(ByVal args As Variant, ByRef warning As String) As Variant
+    Dim run As Variant, figures As Object, figure As Object, cells As Variant, out() As Variant, r As Long, c As Long
+    Dim names() As String, name As String, unit As String, someName As Boolean, key As Variant, display As String
+    cells = Cells2D(args(2))
+    For r = 1 To UBound(cells, 1)
+        For c = 1 To UBound(cells, 2)
+            If Not IsBlank(cells(r, c)) Then someName = True
+        Next
+    Next
+    ReDim names(0 To 0)
+    run = ProfileRun(args, 3, names, 0)
+    warning = run(1)
+    If run(0) = ELY_PARTIAL Then FailStopped run(1), run(3)  ' the summary of a run cut short is not the profile's
+    Set figures = run(4)("figures")
+    If Not someName Then
+        ReDim out(0 To figures.count, 0 To 3)
+        out(0, 0) = "figure": out(0, 1) = "value": out(0, 2) = "unit": out(0, 3) = "label"
+        r = 0
+        For Each key In figures.Keys
+            r = r + 1
+            Set figure = figures(key)
+            display = figure("display_unit")
+            If display = "" Then display = figure("unit")
+            out(r, 0) = key
+            If IsNull(figure("value")) Then
+                out(r, 1) = ""
+            Else
+                out(r, 1) = figure("value") * figure("display_scale") + figure("display_offset")
+            End If
+            out(r, 2) = IIf(display = "1", "", display)
+            out(r, 3) = figure("label")
+        Next
+        RunSummary = out
+        Exit Function
+    End If
+    ReDim out(1 To UBound(cells, 1), 1 To UBound(cells, 2))
+    For r = 1 To UBound(cells, 1)
+        For c = 1 To UBound(cells, 2)
+            If IsBlank(cells(r, c)) Then
+                out(r, c) = ""
+            ElseIf VarType(cells(r, c)) <> vbString Then
+                Fail "figures: expected names, got the number " & NumberText(cells(r, c))
+            Else
+                NameAndUnit cells(r, c), name, unit, "figures"
+                If Not figures.Exists(name) Then
+                    Fail "figures: the run summary has no figure '" & name & "'; it has " & Join(figures.Keys, ", ")
+                End If
+                Set figure = figures(name)
+                If IsNull(figure("value")) Then Fail "figures: " & name & " (" & figure("label") & ") has no value for this run"
+                If unit <> "" Then
+                    out(r, c) = ConvertUnit(figure("value"), figure("unit"), unit)
+                Else
+                    out(r, c) = figure("value")
+                End If
+            End If
+        Next
+    Next
+    RunSummary = out
+End Function
+
+' ---- JSON (the run summary) -------------------------------------------------------------------------------
+' The value of a JSON text: objects as Dictionaries (keys in their order), arrays as Collections,
+' strings, numbers as Double, null as Null, true and false as Boolean.
+Private Function JsonParse(ByVal text As String) As Variant
+    Dim at As Long, result As Variant
+    at = 1
+    JsonValueAt text, at, result
+    If IsObject(result) Then Set JsonParse = result Else JsonParse = result
+End Function
+
+Private Sub JsonSkip(ByRef text As String, ByRef at As Long)
+    Do While at <= Len(text)
+        Select Case Mid$(text, at, 1)
+        Case " ", vbTab, vbCr, vbLf: at = at + 1
+        Case Else: Exit Do
+        End Select
+    Loop
+End Sub
+
+' Reads the value at position at (1-based) into value and moves at past it. Every value read goes
+' into a fresh Variant (a member is read by JsonMember), so no Variant holding an object is assigned.
+Private Sub JsonValueAt(ByRef text As String, ByRef at As Long, ByRef value As Variant)
+    Dim ch As String, node As Object, list As Collection, start As Long
+    JsonSkip text, at
+    ch = Mid$(text, at, 1)
+    Select Case ch
+    Case "{"
+        Set node = NewDictionary()
+        at = at + 1
+        JsonSkip text, at
+        If Mid$(text, at, 1) = "}" Then
+            at = at + 1
+        Else
+            Do
+                JsonMember text, at, node
+                JsonSkip text, at
+                ch = Mid$(text, at, 1)
+                at = at + 1
+                If ch = "}" Then Exit Do
+                If ch <> "," Then Fail "run summary: ',' or '}' expected at character " & (at - 1)
+            Loop
+        End If
+        Set value = node
+    Case "["
+        Set list = New Collection
+        at = at + 1
+        JsonSkip text, at
+        If Mid$(text, at, 1) = "]" Then
+            at = at + 1
+        Else
+            Do
+                JsonItem text, at, list
+                JsonSkip text, at
+                ch = Mid$(text, at, 1)
+                at = at + 1
+                If ch = "]" Then Exit Do
+                If ch <> "," Then Fail "run summary: ',' or ']' expected at character " & (at - 1)
+            Loop
+        End If
+        Set value = list
+    Case """"
+        value = JsonStringAt(text, at)
+    Case "n"
+        value = Null
+        at = at + 4
+    Case "t"
+        value = True
+        at = at + 4
+    Case "f"
+        value = False
+        at = at + 5
+    Case Else
+        start = at
+        Do While at <= Len(text)
+            If InStr("+-0123456789.eE", Mid$(text, at, 1)) = 0 Then Exit Do
+            at = at + 1
+        Loop
+        If at = start Then Fail "run summary: unexpected '" & ch & "' at character " & at
+        value = Val(Mid$(text, start, at - start))  ' Val reads '.' and exponents in any locale
+    End Select
+End Sub
+
+Private Sub JsonMember(ByRef text As String, ByRef at As Long, ByVal node As Object)
+    Dim key As String, member As Variant
+    JsonSkip text, at
+    If Mid$(text, at, 1) <> """" Then Fail "run summary: a key expected at character " & at
+    key = JsonStringAt(text, at)
+    JsonSkip text, at
+    If Mid$(text, at, 1) <> ":" Then Fail "run summary: ':' expected at character " & at
+    at = at + 1
+    JsonValueAt text, at, member
+    node.Add key, member
+End Sub
+
+Private Sub JsonItem(ByRef text As String, ByRef at As Long, ByVal list As Collection)
+    Dim item As Variant
+    JsonValueAt text, at, item
+    list.Add item
+End Sub
+
+' The JSON string starting at position at (its opening quote); at moves past its closing quote.
+Private Function JsonStringAt(ByRef text As String, ByRef at As Long) As String
+    Dim out As String, ch As String
+    at = at + 1
+    Do While at <= Len(text)
+        ch = Mid$(text, at, 1)
+        If ch = """" Then
+            at = at + 1
+            JsonStringAt = out
+            Exit Function
+        End If
+        If ch = "\" Then
+            at = at + 1
+            ch = Mid$(text, at, 1)
+            Select Case ch
+            Case "b": ch = Chr$(8)
+            Case "f": ch = Chr$(12)
+            Case "n": ch = vbLf
+            Case "r": ch = vbCr
+            Case "t": ch = vbTab
+            Case "u"
+                ch = ChrW$(CLng("&H" & Mid$(text, at + 1, 4)))
+                at = at + 4
+            End Select
+        End If
+        out = out & ch
+        at = at + 1
+    Loop
+    Fail "run summary: a string without its closing quote"
+End Function
+
 Private Function RunVariables(ByVal args As Variant) As Variant
     Dim key As String, block As LongPtr, wanted As String, count As Long, k As Long, n As Long
     Dim info(0 To INFO_SIZE - 1) As Byte, causality As Long, kinds As Variant, out() As Variant, rows As Collection
@@ -769,6 +1206,20 @@ Public Function ELYOUTPUTS(plant As Variant, variables As Variant, ParamArray in
     ELYOUTPUTS = ElyCall("ELYOUTPUTS", Array(plant, variables), rest)
 End Function
 
+' Runs the plant in time through a profile (start-ups, ramps, temperature) and returns the chosen variables at each row's time, one row per profile row.
+Public Function ELYPROFILE(plant As Variant, profile As Variant, outputs As Variant, ParamArray inputs() As Variant) As Variant
+    Dim rest As Variant
+    rest = inputs
+    ELYPROFILE = ElyCall("ELYPROFILE", Array(plant, profile, outputs), rest)
+End Function
+
+' Runs the plant in time through a profile and returns the run summary: hydrogen, energy, specific energy, water, full-load hours, starts and more.
+Public Function ELYSUMMARY(plant As Variant, profile As Variant, figures As Variant, ParamArray inputs() As Variant) As Variant
+    Dim rest As Variant
+    rest = inputs
+    ELYSUMMARY = ElyCall("ELYSUMMARY", Array(plant, profile, figures), rest)
+End Function
+
 ' Lists the plant's variables: a header row, then one row per variable with its name, SI unit, causality, display unit and description.
 Public Function ELYVARIABLES(plant As Variant, Optional causality As Variant) As Variant
     If IsMissing(causality) Then causality = Empty
@@ -789,7 +1240,7 @@ End Function
 
 ' The functions, for messages.
 Private Function ElyFunctionList() As String
-    ElyFunctionList = "ELYSOLVE, ELYOUTPUTS, ELYVARIABLES, ELYVERSION, ELYMESSAGE"
+    ElyFunctionList = "ELYSOLVE, ELYOUTPUTS, ELYPROFILE, ELYSUMMARY, ELYVARIABLES, ELYVERSION, ELYMESSAGE"
 End Function
 
 ' How many arguments each function takes before its repeated one and how many of them it
@@ -798,6 +1249,8 @@ Private Sub ElyArity(ByVal name As String, ByRef fixed As Long, ByRef required A
     Select Case name
     Case "ELYSOLVE": fixed = 2: required = 2: repeated = True
     Case "ELYOUTPUTS": fixed = 2: required = 2: repeated = True
+    Case "ELYPROFILE": fixed = 3: required = 3: repeated = True
+    Case "ELYSUMMARY": fixed = 3: required = 3: repeated = True
     Case "ELYVARIABLES": fixed = 2: required = 1: repeated = False
     Case "ELYVERSION": fixed = 0: required = 0: repeated = False
     Case "ELYMESSAGE": fixed = 1: required = 1: repeated = True
@@ -827,6 +1280,32 @@ Public Sub ElyblockRegister()
             "A row or column of variable names, each with an optional unit in brackets: " & _
             """cell.voltage"", ""product.hydrogen [kg/h]"". Empty cells give empty results.", _
             "Optional pairs of input name and value, as for ELYSOLVE.")
+    Application.MacroOptions Macro:="ELYPROFILE", Category:="elyblock", _
+        Description:="Runs the plant in time through a profile (start-ups, ramps, temperature) and " & _
+            "returns the chosen variables at each row's time, one row per profile row.", _
+        ArgumentDescriptions:=Array( _
+            "The plant: a path to a JSON plant description or a two-column range of keys and " & _
+            "values.", _
+            "A header row, the time first (""time [h]""), then input columns (""power [MW]"", " & _
+            """in.ambient_temperature [degC]""); then one row per time, each holding until the " & _
+            "next.", _
+            "A row of variable names, each with an optional unit in brackets: " & _
+            """stack.temperature [degC]"", ""product.hydrogen [kg/h]"". Empty cells give empty " & _
+            "columns.", _
+            "Optional pairs of input name and value held over the run, as for ELYSOLVE: " & _
+            """in.mode_request""; 3 (automatic: hot standby below the minimum load).")
+    Application.MacroOptions Macro:="ELYSUMMARY", Category:="elyblock", _
+        Description:="Runs the plant in time through a profile and returns the run summary: hydrogen, " & _
+            "energy, specific energy, water, full-load hours, starts and more.", _
+        ArgumentDescriptions:=Array( _
+            "The plant: a path to a JSON plant description or a two-column range of keys and " & _
+            "values.", _
+            "A header row, the time first (""time [h]""), then input columns (""power [MW]""); " & _
+            "then one row per time, as for ELYPROFILE.", _
+            "Figure names with an optional unit in brackets (""hydrogen [t]""; SI without), " & _
+            "their values shaped like the range; empty (""""): the whole summary as rows of " & _
+            "figure, value, unit, label.", _
+            "Optional pairs of input name and value held over the run, as for ELYPROFILE.")
     Application.MacroOptions Macro:="ELYVARIABLES", Category:="elyblock", _
         Description:="Lists the plant's variables: a header row, then one row per variable with its " & _
             "name, SI unit, causality, display unit and description.", _
