@@ -83,8 +83,9 @@ def library():
         lib.ely_convert_unit.restype = ctypes.c_int32
         lib.ely_convert_unit.argtypes = [ctypes.c_double, ctypes.c_char_p, ctypes.c_char_p,
                                          ctypes.POINTER(ctypes.c_double)]
-        # The profile run (the dynamic block), in libraries that have it.
-        if hasattr(lib, "ely_block_simulate"):
+        # The profile run (the dynamic block), in libraries that have it, declared here when the
+        # package does not declare it (the package's own declarations are left as they are).
+        if hasattr(lib, "ely_block_simulate") and "ely_block_simulate" not in elyblock._capi._PROTOTYPES:
             lib.ely_block_simulate.restype = ctypes.c_int32
             lib.ely_block_simulate.argtypes = [ctypes.c_void_p, ctypes.c_size_t, ctypes.c_void_p, ctypes.c_int32,
                                                ctypes.c_void_p, ctypes.c_void_p, ctypes.c_int32, ctypes.c_void_p,
@@ -588,7 +589,7 @@ class Functions:
             status = lib.ely_block_simulate(
                 work._live(), n, (ctypes.c_double * n)(*times), n_in, (ctypes.c_int32 * n_in)(*in_index),
                 (ctypes.c_double * (n * n_in))(*values), n_out, (ctypes.c_int32 * n_out)(*out_index) if n_out else None,
-                out, row_status, None, None)
+                out, row_status, lib.ely_block_simulate.argtypes[10](), None)  # a NULL progress callback
             message = (ely._capi.last_error() or ely._capi.status_text(status)) if status != 0 else ""
             if status < 0:
                 raise _failure(ely.errors.error_for(status, message))

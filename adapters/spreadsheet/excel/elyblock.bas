@@ -846,13 +846,20 @@ Private Function ProfileRun(ByVal args As Variant, ByVal first As Long, ByRef ou
     ProfileRun = runs(runKey)
 End Function
 
-' The cells of a 2-D array as one text (for the key of a run).
+' The cells of a 2-D array as one text (for the key of a run); numbers by their 64 bits, so that
+' two values that print alike (15 digits) are two keys.
 Private Function CellsKey(ByVal cells As Variant) As String
-    Dim parts() As String, r As Long, c As Long, k As Long
+    Dim parts() As String, r As Long, c As Long, k As Long, x As Double, bits As LongLong
     ReDim parts(0 To UBound(cells, 1) * UBound(cells, 2) - 1)
     For r = 1 To UBound(cells, 1)
         For c = 1 To UBound(cells, 2)
-            parts(k) = VarType(cells(r, c)) & ":" & CStr(cells(r, c))
+            If VarType(cells(r, c)) = vbDouble Then
+                x = cells(r, c)
+                RtlMoveMemory VarPtr(bits), VarPtr(x), 8
+                parts(k) = "d" & Hex$(bits)
+            Else
+                parts(k) = VarType(cells(r, c)) & ":" & CStr(cells(r, c))
+            End If
             k = k + 1
         Next
     Next
