@@ -5,6 +5,7 @@
 #define ELYBLOCK_COMMANDS(X) \
     X(solve)                 \
     X(sweep)                 \
+    X(fit)                   \
     X(variables)             \
     X(water)                 \
     X(version)               \

@@ -266,6 +266,17 @@ void Block::set_spec(Spec spec) {
     outputs_current_ = false;
 }
 
+void Block::keep_state_for_rollback() {
+    last_good_ = v_;
+    last_good_spec_ = spec_;
+    last_good_rating_ = rectifier_rated_power_;
+    last_good_outputs_current_ = outputs_current_;
+    if (last_good_cell_ != cell_) {
+        last_good_cell_ = cell_;
+        last_good_cell_values_ = cell_values_;
+    }
+}
+
 SolveOutcome Block::solve() {
     try {
         const double t = v_[in_temperature], pa = v_[in_pressure_anode], pc = v_[in_pressure_cathode];
@@ -280,13 +291,7 @@ SolveOutcome Block::solve() {
         last_current_density_ = j;
         has_solution_ = true;
         outputs_current_ = true;
-        last_good_ = v_;
-        last_good_spec_ = spec_;
-        last_good_rating_ = rectifier_rated_power_;
-        if (last_good_cell_ != cell_) {
-            last_good_cell_ = cell_;
-            last_good_cell_values_ = cell_values_;
-        }
+        keep_state_for_rollback();
     } catch (...) {
         // Roll back to the last consistent state: spec, inputs, parameters and outputs of the
         // last good solve.
@@ -295,7 +300,7 @@ SolveOutcome Block::solve() {
         cell_ = last_good_cell_;
         cell_values_ = last_good_cell_values_;
         rectifier_rated_power_ = last_good_rating_;
-        outputs_current_ = has_solution_;
+        outputs_current_ = last_good_outputs_current_;
         throw;
     }
     SolveOutcome out;

@@ -3,8 +3,8 @@
 //   Block(design) → set inputs / tunable parameters → solve() → get outputs → set … → solve() …
 // Outputs can be read only while they belong to the current inputs (after a successful solve
 // and before the next set). A failed solve rolls the spec, the inputs and the parameters back to
-// those of the last successful solve, so the block always holds a consistent solved state (or
-// none yet). A failed set changes nothing.
+// those of the last successful solve (or of the last keep_state_for_rollback()), so the block
+// always holds a consistent state. A failed set changes nothing.
 //
 // The work is split by concern: block.cpp (variables, set/get, parameters, the solve and its
 // rollback), spec_solve.cpp (the current density that meets the spec), streams.cpp (streams,
@@ -60,6 +60,12 @@ public:
 
     SolveOutcome solve();  // throws on failure after rolling back
     bool solved() const { return outputs_current_; }
+
+    /// Makes the present spec, inputs and parameters the state a failed solve returns to (as a
+    /// successful solve does), with the outputs readable afterwards only if they are now. A batch
+    /// takes it on its working copy, so that a failed point never loses what was set on the
+    /// block between its last solve and the batch.
+    void keep_state_for_rollback();
 
     /// The solved state as a JSON object: technology, spec, the drive input it reads, name, and
     /// every variable with its value (null when not a number) and unit.
@@ -131,6 +137,7 @@ private:
     std::shared_ptr<const Cell> last_good_cell_;
     std::shared_ptr<const ParameterValues> last_good_cell_values_;
     double last_good_rating_ = 0;
+    bool last_good_outputs_current_ = false;
     bool has_solution_ = false;
     bool outputs_current_ = false;
 };
