@@ -11,6 +11,7 @@
 #include "elyblock/elyblock.h"
 #include "block_handle.hpp"
 #include "guard.hpp"
+#include "batch/pem_batch.hpp"
 #include "unit/block.hpp"
 
 namespace {
@@ -33,6 +34,9 @@ ely::Spec parse_spec(const char* text) {
 }
 
 // Sizes of the versions of ely_variable_info: a caller's struct_size says which members it has.
+// Batches of fewer points stay on the scalar path (reading the block for the vector kernel costs
+// about as much as solving a few points).
+constexpr size_t kVectorBatchMinimum = 16;
 constexpr size_t kVariableInfoV1 = offsetof(ely_variable_info, description) + sizeof(const char*);
 constexpr size_t kVariableInfoV2 = offsetof(ely_variable_info, summary_rank) + sizeof(int32_t);
 }  // namespace
@@ -201,6 +205,25 @@ ELY_API int32_t ely_block_solve_batch(const ely_block* block, size_t n_points, i
         std::string first_failure, first_warning;
         bool any_warning = false, any_failure = false, cancelled = false;
         const double nan = std::numeric_limits<double>::quiet_NaN();
+        // One point on the scalar path: set its inputs on the working copy and solve it.
+        const auto solve_scalar = [&](size_t k, double* out_row) {
+            return guard([&] {
+                const double* in_row = inputs + k * static_cast<size_t>(n_inputs);
+                for (int32_t i = 0; i < n_inputs; ++i) work.set(input_indices[i], in_row[i]);
+                const int32_t s = finish_solve(work.solve());
+                for (int32_t o = 0; o < n_outputs; ++o) out_row[o] = work.get(output_indices[o]);
+                return s;
+            });
+        };
+        // The vectorized batch (lib/batch) where it applies, in chunks that divide the progress interval;
+        // a point it does not take, and the first that raises an alarm (for its message), on the scalar path.
+        // Points are independent at the specs it covers, so the order of the working copy's solves is moot.
+        std::unique_ptr<ely::batch::PemBatch> fast;
+        if (n_points >= kVectorBatchMinimum)
+            fast = std::make_unique<ely::batch::PemBatch>(block->model, n_inputs, input_indices, n_outputs, output_indices);
+        if (fast && !fast->usable()) fast.reset();
+        uint8_t verdict[ely::batch::PemBatch::kChunk];
+        size_t chunk_first = 0, chunk_end = 0;
         for (size_t k = 0; k < n_points; ++k) {
             double* out_row = outputs ? outputs + k * static_cast<size_t>(n_outputs) : nullptr;
             if (cancelled) {
@@ -208,13 +231,17 @@ ELY_API int32_t ely_block_solve_batch(const ely_block* block, size_t n_points, i
                 for (int32_t o = 0; o < n_outputs; ++o) out_row[o] = nan;
                 continue;
             }
-            const int32_t status = guard([&] {
-                const double* in_row = inputs + k * static_cast<size_t>(n_inputs);
-                for (int32_t i = 0; i < n_inputs; ++i) work.set(input_indices[i], in_row[i]);
-                const int32_t s = finish_solve(work.solve());
-                for (int32_t o = 0; o < n_outputs; ++o) out_row[o] = work.get(output_indices[o]);
-                return s;
-            });
+            if (fast && k == chunk_end) {
+                const size_t count = std::min(ely::batch::PemBatch::kChunk, n_points - k);
+                fast->run(inputs, k, count, outputs, verdict);
+                chunk_first = k;
+                chunk_end = k + count;
+            }
+            const uint8_t v = fast ? verdict[k - chunk_first] : 2;
+            int32_t status;
+            if (v == 0) status = ELY_OK;
+            else if (v == 1 && !first_warning.empty()) status = ELY_WARNING;
+            else status = solve_scalar(k, out_row);
             point_status[k] = status;
             if (status < 0 && first_failure.empty())
                 first_failure = "point " + std::to_string(k) + ": " + ely_last_error();

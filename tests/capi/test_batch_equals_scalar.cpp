@@ -1,0 +1,178 @@
+// ely_block_solve_batch against the scalar path, point by point (set + solve + get on a block of the
+// same description): every output of every technology at the current-density and current specs, on random
+// points that include failing ones (limits crossed, open circuit, standby, infeasible drive values).
+// The batch takes the vectorized kernel where it applies (PEM at the current-density spec, lib/batch);
+// it must give the scalar path's statuses and, for the points that solve, every output to 1e-12
+// relative (NaN where the scalar path gives NaN).
+#include <algorithm>
+#include <cmath>
+#include <random>
+#include <string>
+#include <vector>
+
+#include "capi_support.hpp"
+
+namespace {
+using capi_test::Block;
+
+const char* const kTechnologies[] = {"pem", "aem", "alkaline", "solid_oxide", "brine", "custom"};
+const char* const kSpecs[] = {"current_density", "current", "power", "hydrogen_rate", "voltage"};
+const char* const kDrive[] = {"in.current_density", "in.current", "in.power", "in.hydrogen_rate", "in.voltage"};
+
+std::vector<int32_t> output_indices(const Block& b) {
+    int32_t n = 0;
+    ely_block_variable_count(b.get(), &n);
+    std::vector<int32_t> out;
+    for (int32_t i = 0; i < n; ++i) {
+        ely_variable_info info{};
+        info.struct_size = sizeof info;
+        EXPECT_EQ(ely_block_variable_info(b.get(), i, &info), ELY_OK);
+        if (info.causality == ELY_CAUSALITY_OUTPUT) out.push_back(i);
+    }
+    return out;
+}
+
+// |a − b| <= 1e-12 max(|a|, |b|, scale), or both NaN, or both the same infinity. scale is 0 but for the
+// heat flows, which are differences of enthalpy flows and the power (heat.duty passes through zero
+// near the thermoneutral voltage): for them the stack power, the size of the terms.
+bool close(double a, double b, double scale) {
+    if (std::isnan(a) || std::isnan(b)) return std::isnan(a) && std::isnan(b);
+    if (a == b) return true;
+    return std::fabs(a - b) <= 1e-12 * std::max({std::fabs(a), std::fabs(b), scale});
+}
+
+struct Points {
+    std::vector<double> in;  // rows: drive, T, p_c, p_a
+    size_t n = 0;
+    void add(double drive, double t, double pc, double pa) {
+        in.insert(in.end(), {drive, t, pc, pa});
+        ++n;
+    }
+};
+
+// Compares the batch with set + solve + get on `scalar` (a block of the same description and spec).
+void compare(const Block& batch_block, const Block& scalar, const char* drive, const Points& p, const std::string& what) {
+    const int32_t ii[] = {batch_block.index(drive), batch_block.index("in.temperature"),
+                          batch_block.index("in.pressure_cathode"), batch_block.index("in.pressure_anode")};
+    const std::vector<int32_t> oi = output_indices(batch_block);
+    const size_t no = oi.size();
+    std::vector<double> out(p.n * no);
+    std::vector<int32_t> status(p.n);
+    ely_block_solve_batch(batch_block.get(), p.n, 4, ii, p.in.data(), static_cast<int32_t>(no), oi.data(), out.data(),
+                          status.data(), nullptr, nullptr);
+    std::vector<bool> heat(no);
+    for (size_t o = 0; o < no; ++o) {
+        ely_variable_info info{};
+        info.struct_size = sizeof info;
+        ely_block_variable_info(batch_block.get(), oi[o], &info);
+        heat[o] = std::string(info.name).rfind("heat.", 0) == 0;
+    }
+    const int32_t power = batch_block.index("stack.power");
+    int solved = 0, worst_shown = 0;
+    for (size_t k = 0; k < p.n; ++k) {
+        int32_t s = ELY_OK;
+        for (int i = 0; i < 4 && s >= 0; ++i) s = ely_block_set(scalar.get(), ii[i], p.in[4 * k + static_cast<size_t>(i)]);
+        if (s >= 0) s = ely_block_solve(scalar.get());
+        ASSERT_EQ(status[k], s) << what << " point " << k << ": " << ely_last_error();
+        if (s < 0) continue;
+        ++solved;
+        double p_stack = 0;
+        ely_block_get(scalar.get(), power, &p_stack);
+        for (size_t o = 0; o < no; ++o) {
+            double v = std::nan("");
+            ASSERT_EQ(ely_block_get(scalar.get(), oi[o], &v), ELY_OK);
+            const double b = out[k * no + o];
+            if (!close(b, v, heat[o] ? std::fabs(p_stack) : 0.0) && worst_shown++ < 10) {
+                ely_variable_info info{};
+                info.struct_size = sizeof info;
+                ely_block_variable_info(scalar.get(), oi[o], &info);
+                ADD_FAILURE() << what << " point " << k << " " << info.name << ": batch " << b << ", scalar " << v
+                              << " (rel " << std::fabs(b / v - 1) << ")";
+            }
+        }
+    }
+    EXPECT_GT(solved, 0) << what;
+}
+
+// Random points around the configured operating point of a description, some of them failing.
+Points random_points(const Block& b, int spec, std::mt19937_64& rng, size_t n) {
+    std::uniform_real_distribution<double> u(0.0, 1.0);
+    const double t0 = b.value("in.temperature"), pc0 = b.value("in.pressure_cathode"), pa0 = b.value("in.pressure_anode");
+    // The drive values the configured point reaches at its spec's quantity.
+    const double q_ref[] = {b.value("cell.current_density"), b.value("stack.current"), b.value("stack.power"),
+                            b.value("product.hydrogen"), b.value("cell.voltage")};
+    const double e_ref = b.value("cell.reversible_voltage");
+    Points p;
+    for (size_t k = 0; k < n; ++k) {
+        double drive = spec == 4 ? e_ref + (q_ref[4] - e_ref) * (0.2 + 1.0 * u(rng)) : q_ref[spec] * (0.02 + 1.2 * u(rng));
+        double t = t0 + 20.0 * (u(rng) - 0.5), pc = pc0 * (1.0 + 2.0 * u(rng)), pa = pa0 * (1.0 + 0.5 * u(rng));
+        switch (k % 23) {  // failing and edge points
+            case 3: drive = spec == 4 ? 100.0 : drive * 1e3; break;   // beyond every limit
+            case 5: t = std::nan(""); break;                           // not a number
+            case 7: drive = 0.0; break;                                 // open circuit
+            case 11: drive = spec == 4 ? drive : q_ref[spec] * 1e-7; break;  // standby (below the crossover)
+            case 13: t = 250.0; break;                                  // below every envelope
+            case 17: pc = 1.0; break;                                   // below every pressure limit
+            default: break;
+        }
+        p.add(drive, t, pc, pa);
+    }
+    return p;
+}
+
+}  // namespace
+
+TEST(BatchEqualsScalar, EveryTechnologyEveryOutput) {
+    std::mt19937_64 rng(20261202);
+    for (const char* tech : kTechnologies) {
+        const std::string config = capi_test::minimal_config(tech);
+        Block ref(config);
+        ASSERT_EQ(ely_block_set_spec(ref.get(), "current_density"), ELY_OK) << tech;
+        ASSERT_GE(ely_block_solve(ref.get()), 0) << tech << ": " << ely_last_error();
+        for (int s = 0; s < 5; ++s) {
+            Block batch(config), scalar(config);
+            if (ely_block_set_spec(batch.get(), kSpecs[s]) != ELY_OK) continue;  // a drive the technology lacks
+            // The spec solves (power, hydrogen rate, voltage) warm-start from the previous point, and after a
+            // failed point the batch's working copy and a single block roll back differently: found to
+            // give other roots at the voltage spec (brine, custom), both on the scalar path. Compared
+            // here: the specs without history, where the vector kernel works.
+            if (s >= 2) continue;
+            ASSERT_EQ(ely_block_set_spec(scalar.get(), kSpecs[s]), ELY_OK);
+            const Points p = random_points(ref, s, rng, 120);
+            compare(batch, scalar, kDrive[s], p, std::string(tech) + " at " + kSpecs[s]);
+        }
+    }
+}
+
+// The vectorized kernel over the ranges a study sweeps (the shared numpy peer's: 0.05-3 A/cm2,
+// 30-90 C, cathode 1-40 bar, anode 1-3 bar), with the parameters that select its branches changed:
+// hydrogen recombined at the anode, oxygen partly recombined, drag water drained, ageing, alarms.
+TEST(BatchEqualsScalar, PemKernelOverAStudysRanges) {
+    const std::string config = capi_test::minimal_config("pem");
+    for (int variant = 0; variant < 3; ++variant) {
+        Block batch(config), scalar(config);
+        const auto both = [&](const char* name, double v) {
+            batch.set(name, v);
+            scalar.set(name, v);
+        };
+        if (variant >= 1) {
+            both("param.cell.h2_recombination_fraction_anode", 0.3);
+            both("param.cell.o2_recombination_fraction", 0.6);
+            both("param.cell.h2_darcy_coefficient", 1e-21);
+            both("in.hours_operated", 20000.0);
+            both("param.degradation.voltage_rate", 2e-6);
+        }
+        if (variant == 2) {
+            both("param.thermal.gas_cooler_temperature", 370.0);  // above the stack: nothing condenses
+            both("param.rectifier.loss_quadratic", 0.01);
+            both("in.feed_temperature", 340.0);
+        }
+        std::mt19937_64 rng(7 + static_cast<unsigned>(variant));
+        std::uniform_real_distribution<double> j(500.0, 3.0e4), t(303.15, 363.15), pc(1e5, 40e5), pa(1e5, 3e5);
+        Points p;
+        for (int k = 0; k < 3000; ++k) p.add(j(rng), t(rng), pc(rng), pa(rng));
+        p.add(6.0e4, 353.15, 30e5, 1e5);  // at the limiting current density: fails
+        p.add(1e-3, 353.15, 30e5, 1e5);   // standby
+        compare(batch, scalar, "in.current_density", p, "pem variant " + std::to_string(variant));
+    }
+}
