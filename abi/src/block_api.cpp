@@ -217,7 +217,8 @@ ELY_API int32_t ely_block_solve_batch(const ely_block* block, size_t n_points, i
         };
         // The vectorized batch (lib/batch) where it applies, in chunks that divide the progress interval;
         // a point it does not take, and the first that raises an alarm (for its message), on the scalar path.
-        // Points are independent at the specs it covers, so the order of the working copy's solves is moot.
+        // Points are independent at the specs it covers (a spec solve's warm start moves the scalar path's
+        // answer only within its tolerance), so the order of the working copy's solves is moot.
         std::unique_ptr<ely::batch::PemBatch> fast;
         if (n_points >= kVectorBatchMinimum)
             fast = std::make_unique<ely::batch::PemBatch>(block->model, n_inputs, input_indices, n_outputs, output_indices);

@@ -52,7 +52,13 @@ std::vector<const char*> instruction_sets() {
 
 PemBatch::PemBatch(const Block& block, int32_t n_inputs, const int32_t* input_indices, int32_t n_outputs,
                    const int32_t* output_indices, const char* isa) {
-    if (std::strcmp(block.technology().name, "pem") != 0 || block.spec() != Spec::current_density) return;
+    if (std::strcmp(block.technology().name, "pem") != 0) return;
+    switch (block.spec()) {
+        case Spec::current_density: spec_ = 0; break;
+        case Spec::power: spec_ = 1; break;
+        case Spec::voltage: spec_ = 2; break;
+        default: return;
+    }
     if (block.design().custom || !block.cell().own_outputs().empty()) return;
     const ParameterValues* values = block.cell_parameter_values();
     if (!values) return;
@@ -60,7 +66,7 @@ PemBatch::PemBatch(const Block& block, int32_t n_inputs, const int32_t* input_in
     n_outputs_ = n_outputs;
 
     // Rows: the four per-point inputs of the kernel, each at most once.
-    const Var per_point[4] = {in_current_density, in_temperature, in_pressure_cathode, in_pressure_anode};
+    const Var per_point[4] = {spec_info(block.spec()).drive, in_temperature, in_pressure_cathode, in_pressure_anode};
     for (int32_t i = 0; i < n_inputs; ++i) {
         const int32_t v = block.table_variable(input_indices[i]);
         const auto* it = std::find(per_point, per_point + 4, static_cast<Var>(v));
@@ -127,6 +133,8 @@ PemBatch::PemBatch(const Block& block, int32_t n_inputs, const int32_t* input_in
     k.j_max = e.current_density_max;
     k.t_fit_min = e.temperature_fit_min;
     k.t_fit_max = e.temperature_fit_max;
+    const double j_plant = block.value(par_current_density_max);  // Block::max_current_density
+    k.j_spec_max = std::min(j_plant, block.cell().current_density_limit({j_plant, fixed_[1], fixed_[3], fixed_[2]}));
 
     // The plant.
     const PlantDesign& design = block.design();
@@ -175,6 +183,8 @@ void PemBatch::run(const double* inputs, std::size_t first, std::size_t count, d
     double* col[4] = {work_.data(), work_.data() + n, work_.data() + 2 * n, work_.data() + 3 * n};
     double* verdicts = work_.data() + 4 * n;
     PemChunk chunk{};
+    chunk.spec = spec_;
+    chunk.target = col[0];
     chunk.current_density = col[0];
     chunk.temperature = col[1];
     chunk.pressure_cathode = col[2];
@@ -209,6 +219,7 @@ void PemBatch::run(const double* inputs, std::size_t first, std::size_t count, d
     for (std::size_t r = 0; r < count; ++r) {
         if (verdict[r] == 0) verdict[r] = static_cast<uint8_t>(verdicts[r]);
         if (verdict[r] == 2) continue;
+        if (no == 0) continue;
         double* out = outputs + (first + r) * no;
         const double* in = inputs + (first + r) * ni;
         for (std::size_t o = 0; o < no; ++o) {

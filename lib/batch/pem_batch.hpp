@@ -1,5 +1,5 @@
 #pragma once
-// The vectorized batch of a PEM block at the current-density spec: points in structure-of-arrays
+// The vectorized batch of a PEM block at the current-density, power or voltage spec: points in structure-of-arrays
 // chunks through a SIMD kernel (pem_kernel.hpp), the instruction set picked at run time (AVX-512,
 // AVX2 or SSE2 on x86-64). The C interface's ely_block_solve_batch uses it when it applies and solves
 // on the scalar path every point the kernel does not take; results equal the scalar path's to 1e-12
@@ -27,8 +27,8 @@ public:
 
     /// A batch on `block` (its state at the start of the batch) whose rows set the inputs
     /// input_indices and read output_indices. usable() tells whether the kernel applies: a PEM block
-    /// at the current-density spec with closed-form Butler-Volmer kinetics, rows setting only the
-    /// current density, temperature and pressures, outputs of the table only. isa: an instruction
+    /// at the current-density, power or voltage spec with closed-form Butler-Volmer kinetics, rows
+    /// setting only the spec's drive input, temperature and pressures, outputs of the table only. isa: an instruction
     /// set of instruction_sets() (tests), nullptr for the widest.
     PemBatch(const Block& block, int32_t n_inputs, const int32_t* input_indices, int32_t n_outputs,
              const int32_t* output_indices, const char* isa = nullptr);
@@ -53,6 +53,7 @@ private:
     PemKernel kernel_ = nullptr;
     const char* isa_ = "";
     PemConstants k_{};
+    int spec_ = 0;  // PemChunk::spec
     int32_t n_inputs_ = 0, n_outputs_ = 0;
     int column_[4] = {-1, -1, -1, -1};  // input column of j, T, p_c, p_a (-1: the block's value)
     double fixed_[4] = {};

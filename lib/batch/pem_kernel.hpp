@@ -54,11 +54,10 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         };
 
         // Envelope (cell.cpp check_envelope): outside it the scalar solve fails; j = 0 is open circuit.
-        M skip = !(t >= k.t_min && t <= k.t_max && pa >= k.p_min && pa <= k.p_max && pc >= k.p_min && pc <= k.p_max &&
-                   j > zero && j <= k.j_max && j < k.limiting_current_density);
+        M skip = !(t >= k.t_min && t <= k.t_max && pa >= k.p_min && pa <= k.p_max && pc >= k.p_min && pc <= k.p_max);
+        if (c.spec == 0) skip = skip || !(j > zero && j <= k.j_max && j < k.limiting_current_density);
         // Keep the lanes that are not taken finite and inside every range (their results are dropped).
         const V ts = select(skip, V(0.5 * (k.t_min + k.t_max)), t);
-        const V js = select(skip, V(0.5 * k.limiting_current_density), j);
         const V pcs = select(skip, V(k.p_max), pc);
         const V pas = select(skip, V(k.p_max), pa);
 
@@ -85,13 +84,62 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         // ---- cell (pem.cpp evaluate) ----
         const V inv_t = 1.0 / ts;
         const V x_t = inv_t - k.inverse_reference_temperature;
-        const V conc = -R * ts / (2 * F) * lanes::log1p(-js / k.limiting_current_density);
         const V f = F / (R * ts);
         const V j0a = k.j0_anode * exp(k.ea_anode * x_t);
-        const V act_a = lanes::asinh(js / (2.0 * j0a)) / (k.alpha_anode * f);
         const V j0c = k.j0_cathode * exp(k.ea_cathode * x_t);
-        const V act_c = lanes::asinh(js / (2.0 * j0c)) / (k.alpha_cathode * f);
         const V sigma = k.sigma_303_percent * exp(1268.0 * (1.0 / 303.0 - inv_t));
+        const V asr = k.thickness / sigma + k.contact_resistance;
+        // The spec solves (spec_solve.cpp): the current density at which the stack power or the cell
+        // voltage meets the drive value, by Newton on the analytic derivative of the voltage, safeguarded
+        // by bisection in [0, j_max] per lane; converged to a few ulp (the scalar path's Brent stops at
+        // 1e-13 j_max). Drive values beyond j_max are infeasible, those below the crossover (standby) or
+        // zero go to the scalar path.
+        V js;
+        if (c.spec == 0) {
+            js = select(skip, V(0.5 * k.limiting_current_density), j);
+        } else {
+            const V target = V::load_unaligned(c.target + i);
+            const double kp = k.area * k.stacks * k.cells;
+            const V ba = 1.0 / (k.alpha_anode * f), bc = 1.0 / (k.alpha_cathode * f);
+            const V two_j0a = 2.0 * j0a, two_j0c = 2.0 * j0c;
+            const V b_conc = R * ts / (2 * F);
+            const double r_deg = k.degradation_resistance * k.hours, v_deg = k.degradation_voltage * k.hours;
+            const auto quantity = [&](const V& x, V& dq) {
+                const V v = e_rev + lanes::asinh(x / two_j0a) * ba + lanes::asinh(x / two_j0c) * bc + x * asr + v_deg +
+                            r_deg * x - b_conc * lanes::log1p(-x / k.limiting_current_density);
+                const V dv = ba / lanes::sqrt(x * x + two_j0a * two_j0a) + bc / lanes::sqrt(x * x + two_j0c * two_j0c) + asr +
+                             r_deg + b_conc / (k.limiting_current_density - x);
+                if (c.spec == 1) {
+                    dq = kp * (v + x * dv);
+                    return kp * x * v;
+                }
+                dq = dv;
+                return v;
+            };
+            V dq;
+            const V q_max = quantity(V(k.j_spec_max), dq);
+            skip = skip || !(target > zero) || !(q_max >= target);
+            V lo = zero, hi = V(k.j_spec_max);
+            V x = select(skip, V(0.5 * k.j_spec_max),
+                         min(V(0.5 * k.j_spec_max), c.spec == 1 ? target / (kp * (e_rev + 0.5)) : V(0.5 * k.j_spec_max)));
+            M active = !skip;
+            for (int iteration = 0; iteration < 100 && lanes::any_lane(active); ++iteration) {
+                const V g = quantity(x, dq) - target;
+                const M above = g > zero;
+                hi = select(above, x, hi);
+                lo = select(above, lo, x);
+                V next = x - g / dq;
+                next = select((next >= lo) && (next <= hi), next, 0.5 * (lo + hi));  // false for NaN too
+                next = select(g == zero, x, next);
+                const M done = (lanes::abs(next - x) <= 2e-16 * next) || (g == zero) || !(hi - lo > 2e-16 * hi);
+                x = select(active, next, x);
+                active = active && !done;
+            }
+            js = x;
+        }
+        const V conc = -R * ts / (2 * F) * lanes::log1p(-js / k.limiting_current_density);
+        const V act_a = lanes::asinh(js / (2.0 * j0a)) / (k.alpha_anode * f);
+        const V act_c = lanes::asinh(js / (2.0 * j0c)) / (k.alpha_cathode * f);
         const V ohmic_cell = js * (k.thickness / sigma + k.contact_resistance);
         M extrapolated = (ts < k.t_fit_min) || (ts > k.t_fit_max) || (js > 0.95 * k.limiting_current_density);
 

@@ -21,6 +21,7 @@ struct PemConstants {
     double darcy, supersaturation, recombination_cathode, recombination_anode, drag;
     // Envelope of the cell model.
     double t_min, t_max, p_min, p_max, j_max, t_fit_min, t_fit_max;
+    double j_spec_max;  // A/m², the spec solves' upper end (Block::max_current_density)
     // Plant (variables of the block at the start of the batch).
     double cells, stacks, area, hours, degradation_voltage, degradation_resistance;
     double feed_temperature, gas_cooler_temperature, ambient_temperature, heat_loss_coefficient;
@@ -36,6 +37,8 @@ struct PemConstants {
 /// when variable v is not asked for) and a verdict per point: 0 solved, 1 solved with an alarm raised,
 /// 2 not taken (outside what the kernel covers: the caller solves that point on the scalar path).
 struct PemChunk {
+    int spec;  // 0 current density given, 1 stack power given, 2 cell voltage given
+    const double* target;  // spec 1, 2: the drive value per point
     const double* current_density;
     const double* temperature;
     const double* pressure_cathode;

@@ -50,8 +50,13 @@ struct Points {
     }
 };
 
-// Compares the batch with set + solve + get on `scalar` (a block of the same description and spec).
-void compare(const Block& batch_block, const Block& scalar, const char* drive, const Points& p, const std::string& what) {
+// Compares the batch with set + solve + get on `scalar` (a block of the same description and spec): the
+// statuses, and every output to 1e-12 relative. With `meets` (the output a spec solve's drive input sets:
+// stack.power, cell.voltage): the batch's current density agrees with the scalar spec solve's within the
+// latter's tolerance (Brent, 1e-13 j_max), the batch meets the drive value to 1e-14 or is the scalar
+// path's answer, and every output equals the scalar path's at the batch's current density to 1e-12.
+void compare(const Block& batch_block, const Block& scalar, const char* drive, const Points& p, const std::string& what,
+             const char* meets = nullptr, const Block* at_j = nullptr) {
     const int32_t ii[] = {batch_block.index(drive), batch_block.index("in.temperature"),
                           batch_block.index("in.pressure_cathode"), batch_block.index("in.pressure_anode")};
     const std::vector<int32_t> oi = output_indices(batch_block);
@@ -67,7 +72,11 @@ void compare(const Block& batch_block, const Block& scalar, const char* drive, c
         ely_block_variable_info(batch_block.get(), oi[o], &info);
         heat[o] = std::string(info.name).rfind("heat.", 0) == 0;
     }
-    const int32_t power = batch_block.index("stack.power");
+    const auto at = [&](const char* name) {
+        return static_cast<size_t>(std::find(oi.begin(), oi.end(), batch_block.index(name)) - oi.begin());
+    };
+    const size_t o_power = at("stack.power"), o_j = at("cell.current_density"), o_met = meets ? at(meets) : 0;
+    const double j_max = scalar.value("param.current_density_max");
     int solved = 0, worst_shown = 0;
     for (size_t k = 0; k < p.n; ++k) {
         int32_t s = ELY_OK;
@@ -76,21 +85,35 @@ void compare(const Block& batch_block, const Block& scalar, const char* drive, c
         ASSERT_EQ(status[k], s) << what << " point " << k << ": " << ely_last_error();
         if (s < 0) continue;
         ++solved;
-        double p_stack = 0;
-        ely_block_get(scalar.get(), power, &p_stack);
+        const double* b = &out[k * no];
+        if (meets) {
+            const double j_s = scalar.value("cell.current_density"), q_s = scalar.value(meets), target = p.in[4 * k];
+            EXPECT_NEAR(b[o_j], j_s, 1.01e-13 * j_max + 1e-12 * j_s) << what << " point " << k;
+            if (b[o_met] != q_s) {
+                EXPECT_NEAR(b[o_met], target, 1e-14 * target) << what << " point " << k << " " << meets;
+            }
+            // The scalar path at the batch's current density (at_j: a block of the same description at the
+            // current-density spec).
+            for (int i = 1; i < 4; ++i) ASSERT_EQ(ely_block_set(at_j->get(), ii[i], p.in[4 * k + static_cast<size_t>(i)]), ELY_OK);
+            at_j->set("in.current_density", b[o_j]);
+            ASSERT_GE(ely_block_solve(at_j->get()), 0) << what << " point " << k << ": " << ely_last_error();
+        }
+        const Block& ref = meets ? *at_j : scalar;
+        const double p_stack = ref.value("stack.power");
         for (size_t o = 0; o < no; ++o) {
             double v = std::nan("");
-            ASSERT_EQ(ely_block_get(scalar.get(), oi[o], &v), ELY_OK);
-            const double b = out[k * no + o];
-            if (!close(b, v, heat[o] ? std::fabs(p_stack) : 0.0) && worst_shown++ < 10) {
+            ASSERT_EQ(ely_block_get(ref.get(), oi[o], &v), ELY_OK);
+            if (!close(b[o], v, heat[o] ? std::fabs(p_stack) : 0.0) && worst_shown++ < 10) {
                 ely_variable_info info{};
                 info.struct_size = sizeof info;
                 ely_block_variable_info(scalar.get(), oi[o], &info);
-                ADD_FAILURE() << what << " point " << k << " " << info.name << ": batch " << b << ", scalar " << v
-                              << " (rel " << std::fabs(b / v - 1) << ")";
+                ADD_FAILURE() << what << " point " << k << " (" << p.in[4 * k] << ", " << p.in[4 * k + 1] << ", "
+                              << p.in[4 * k + 2] << ", " << p.in[4 * k + 3] << ") " << info.name << ": batch " << b[o]
+                              << ", scalar " << v << " (rel " << std::fabs(b[o] / v - 1) << ")";
             }
         }
     }
+    (void)o_power;
     EXPECT_GT(solved, 0) << what;
 }
 
@@ -150,10 +173,11 @@ TEST(BatchEqualsScalar, EveryTechnologyEveryOutput) {
 TEST(BatchEqualsScalar, PemKernelOverAStudysRanges) {
     const std::string config = capi_test::minimal_config("pem");
     for (int variant = 0; variant < 3; ++variant) {
-        Block batch(config), scalar(config);
+        Block batch(config), scalar(config), at_j(config);
         const auto both = [&](const char* name, double v) {
             batch.set(name, v);
             scalar.set(name, v);
+            at_j.set(name, v);
         };
         if (variant >= 1) {
             both("param.cell.h2_recombination_fraction_anode", 0.3);
@@ -167,12 +191,23 @@ TEST(BatchEqualsScalar, PemKernelOverAStudysRanges) {
             both("param.rectifier.loss_quadratic", 0.01);
             both("in.feed_temperature", 340.0);
         }
-        std::mt19937_64 rng(7 + static_cast<unsigned>(variant));
-        std::uniform_real_distribution<double> j(500.0, 3.0e4), t(303.15, 363.15), pc(1e5, 40e5), pa(1e5, 3e5);
-        Points p;
-        for (int k = 0; k < 3000; ++k) p.add(j(rng), t(rng), pc(rng), pa(rng));
-        p.add(6.0e4, 353.15, 30e5, 1e5);  // at the limiting current density: fails
-        p.add(1e-3, 353.15, 30e5, 1e5);   // standby
-        compare(batch, scalar, "in.current_density", p, "pem variant " + std::to_string(variant));
+        for (int spec : {0, 2, 4}) {
+            ASSERT_EQ(ely_block_set_spec(batch.get(), kSpecs[spec]), ELY_OK);
+            ASSERT_EQ(ely_block_set_spec(scalar.get(), kSpecs[spec]), ELY_OK);
+            std::mt19937_64 rng(7 + static_cast<unsigned>(variant));
+            std::uniform_real_distribution<double> j(500.0, 3.0e4), t(303.15, 363.15), pc(1e5, 40e5), pa(1e5, 3e5);
+            // Drive values: the stack power (100 cells x 0.1 m2) and cell voltage of about 0.05-3 A/cm2.
+            std::uniform_real_distribution<double> power(8e3, 6e5), voltage(1.5, 2.3);
+            Points p;
+            for (int k = 0; k < (spec == 0 ? 3000 : 1000); ++k)
+                p.add(spec == 0 ? j(rng) : spec == 2 ? power(rng) : voltage(rng), t(rng), pc(rng), pa(rng));
+            p.add(spec == 0 ? 6.0e4 : spec == 2 ? 5e7 : 9.0, 353.15, 30e5, 1e5);  // beyond the limits: fails
+            p.add(spec == 0 ? 1e-3 : spec == 2 ? 1e-2 : 1.3, 353.15, 30e5, 1e5);  // standby
+            p.add(0.0, 353.15, 30e5, 1e5);                                        // open circuit
+            // The spec solves: the scalar path's Brent stops at 1e-13 j_max in the current density (up to 1e-10
+            // relative at the low end of the range), where the batch's Newton converges to a few ulp.
+            compare(batch, scalar, kDrive[spec], p, "pem variant " + std::to_string(variant) + " at " + kSpecs[spec],
+                    spec == 0 ? nullptr : spec == 2 ? "stack.power" : "cell.voltage", &at_j);
+        }
     }
 }
