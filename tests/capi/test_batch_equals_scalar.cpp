@@ -8,7 +8,10 @@
 #include <cmath>
 #include <random>
 #include <string>
+#include <thread>
 #include <vector>
+
+#include <gmock/gmock.h>
 
 #include "capi_support.hpp"
 
@@ -210,4 +213,112 @@ TEST(BatchEqualsScalar, PemKernelOverAStudysRanges) {
                     spec == 0 ? nullptr : spec == 2 ? "stack.power" : "cell.voltage", &at_j);
         }
     }
+}
+
+// ely_block_solve_batch_threads: the same statuses as the single-thread call and outputs to 1e-12 (its
+// pieces' first warning points go to the scalar path), identical for every thread count; progress on
+// the calling thread, cancelling, a bad thread count.
+namespace {
+struct BatchRun {
+    std::vector<double> out;
+    std::vector<int32_t> status;
+    int32_t rc;
+};
+BatchRun run_threads(const Block& b, const Points& p, const int32_t* ii, const std::vector<int32_t>& oi, int32_t threads,
+                ely_progress_fn progress = nullptr, void* user = nullptr) {
+    BatchRun r{std::vector<double>(p.n * oi.size()), std::vector<int32_t>(p.n), 0};
+    r.rc = threads < 0 ? ely_block_solve_batch(b.get(), p.n, 4, ii, p.in.data(), static_cast<int32_t>(oi.size()), oi.data(),
+                                               r.out.data(), r.status.data(), progress, user)
+                       : ely_block_solve_batch_threads(b.get(), p.n, 4, ii, p.in.data(), static_cast<int32_t>(oi.size()),
+                                                       oi.data(), r.out.data(), r.status.data(), threads, progress, user);
+    return r;
+}
+}  // namespace
+
+TEST(BatchThreads, ResultsDoNotDependOnTheThreadCount) {
+    for (const char* spec : {"current_density", "power"}) {
+        Block b(capi_test::minimal_config("pem"));
+        ASSERT_EQ(ely_block_set_spec(b.get(), spec), ELY_OK);
+        const bool power = std::string(spec) == "power";
+        const int32_t ii[] = {b.index(power ? "in.power" : "in.current_density"), b.index("in.temperature"),
+                              b.index("in.pressure_cathode"), b.index("in.pressure_anode")};
+        const std::vector<int32_t> oi = output_indices(b);
+        std::mt19937_64 rng(5);
+        std::uniform_real_distribution<double> u(0.0, 1.0);
+        Points p;
+        for (int k = 0; k < 10000; ++k)
+            p.add((power ? 6e5 : 3e4) * (0.02 + u(rng)), 303.15 + 60 * u(rng), 1e5 + 39e5 * u(rng), 1e5 + 2e5 * u(rng));
+        p.in[4 * 4500 + 1] = 900.0;  // a failing point in the second piece
+        const BatchRun one = run_threads(b, p, ii, oi, -1);
+        const BatchRun t1 = run_threads(b, p, ii, oi, 1), t2 = run_threads(b, p, ii, oi, 2), t3 = run_threads(b, p, ii, oi, 3);
+        EXPECT_EQ(one.rc, ELY_PARTIAL);
+        EXPECT_EQ(t1.rc, one.rc);
+        EXPECT_THAT(std::string(ely_last_error()), ::testing::HasSubstr("point 4500"));
+        EXPECT_EQ(t1.status, one.status);
+        for (const BatchRun* r : {&t2, &t3}) {
+            EXPECT_EQ(r->rc, t1.rc);
+            EXPECT_EQ(r->status, t1.status);
+            for (size_t k = 0; k < t1.out.size(); ++k)  // bit for bit, NaN included
+                ASSERT_TRUE(r->out[k] == t1.out[k] || (std::isnan(r->out[k]) && std::isnan(t1.out[k]))) << spec << " " << k;
+        }
+        const size_t no = oi.size();
+        const int32_t power_out = b.index("stack.power");
+        const size_t o_power = static_cast<size_t>(std::find(oi.begin(), oi.end(), power_out) - oi.begin());
+        for (size_t k = 0; k < p.n; ++k) {
+            if (one.status[k] < 0) continue;
+            for (size_t o = 0; o < no; ++o) {
+                // The spec solve's tolerance at the power spec (a piece's first point is not warm-started).
+                const double tol = power ? 1e-10 : 1e-12;
+                const double a = t1.out[k * no + o], c = one.out[k * no + o];
+                if (std::isnan(a) || std::isnan(c)) {
+                    EXPECT_TRUE(std::isnan(a) && std::isnan(c)) << spec << " point " << k << " output " << o;
+                    continue;
+                }
+                ASSERT_LE(std::fabs(a - c), tol * std::max({std::fabs(a), std::fabs(c), std::fabs(one.out[k * no + o_power])}))
+                    << spec << " point " << k << " output " << o;
+            }
+        }
+    }
+}
+
+TEST(BatchThreads, ProgressOnTheCallingThreadCancelAndArguments) {
+    Block b(capi_test::minimal_config("pem"));
+    const int32_t ii[] = {b.index("in.current_density"), b.index("in.temperature"), b.index("in.pressure_cathode"),
+                          b.index("in.pressure_anode")};
+    const std::vector<int32_t> oi = {b.index("cell.voltage")};
+    Points p;
+    for (int k = 0; k < 20000; ++k) p.add(1e4, 340.0, 30e5, 1e5);
+    struct Log {
+        std::thread::id caller = std::this_thread::get_id();
+        bool other_thread = false;
+        size_t calls = 0, last = 0;
+        bool cancel = false;
+    } log;
+    const auto progress = [](size_t done, size_t, void* user) -> int {
+        auto* l = static_cast<Log*>(user);
+        l->other_thread |= std::this_thread::get_id() != l->caller;
+        ++l->calls;
+        l->last = done;
+        return l->cancel ? 1 : 0;
+    };
+    const BatchRun r = run_threads(b, p, ii, oi, 2, progress, &log);
+    EXPECT_GE(r.rc, 0);
+    EXPECT_FALSE(log.other_thread);
+    EXPECT_EQ(log.last, p.n);
+    log = Log{};
+    log.cancel = true;
+    const BatchRun c = run_threads(b, p, ii, oi, 1, progress, &log);
+    EXPECT_EQ(c.rc, ELY_ERR_CANCELLED);
+    EXPECT_EQ(log.calls, 1u);  // after the first piece
+    EXPECT_GE(c.status[0], 0);
+    EXPECT_EQ(c.status[p.n - 1], ELY_ERR_CANCELLED);
+    EXPECT_TRUE(std::isnan(c.out[p.n - 1]));
+    int32_t st = 0;
+    double v = 0;
+    EXPECT_EQ(ely_block_solve_batch_threads(b.get(), 1, 4, ii, p.in.data(), 1, oi.data(), &v, &st, -1, nullptr, nullptr),
+              ELY_ERR_INVALID_ARGUMENT);
+    EXPECT_THAT(std::string(ely_last_error()), ::testing::HasSubstr("threads is -1"));
+    EXPECT_GE(ely_block_solve_batch_threads(b.get(), 1, 4, ii, p.in.data(), 1, oi.data(), &v, &st, 0, nullptr, nullptr), 0);
+    EXPECT_EQ(ely_block_solve_batch_threads(nullptr, 1, 4, ii, p.in.data(), 1, oi.data(), &v, &st, 2, nullptr, nullptr),
+              ELY_ERR_INVALID_ARGUMENT);
 }
