@@ -119,9 +119,26 @@ inline Region1Temperature<V> region1_temperature(const V& temperature, bool seco
     t.temperature = temperature;
     t.tau = kRegion1Temperature / temperature;
     t.y = t.tau - 1.222;  // >= 1.0 for T <= 623.15 K
-    const auto py = powers<kRegion1MaxJ + 1>(t.y);
-    const auto pyinv = powers<-kRegion1MinJ + 1>(V(1.0) / t.y);
+    // The powers of Table 2 only, by short chains of products (a chain of 41 products is 41 latencies).
+    std::array<V, kRegion1MaxJ + 1> py{};
+    std::array<V, -kRegion1MinJ + 1> pyinv{};
+    {
+        const V y = t.y, r = V(1.0) / t.y;
+        py[0] = V(1.0), py[1] = y, py[2] = y * y, py[3] = py[2] * y, py[4] = py[2] * py[2];
+        py[5] = py[4] * y, py[6] = py[3] * py[3], py[10] = py[5] * py[5], py[17] = py[10] * (py[6] * y);
+        V* n = pyinv.data();
+        n[1] = r, n[2] = r * r, n[3] = n[2] * r, n[4] = n[2] * n[2], n[5] = n[4] * r, n[6] = n[3] * n[3];
+        n[7] = n[4] * n[3], n[8] = n[4] * n[4], n[9] = n[8] * r, n[11] = n[8] * n[3];
+        const V n18 = n[9] * n[9];
+        n[29] = n18 * n[11], n[31] = n18 * (n[11] * n[2]), n[38] = n[29] * n[9], n[39] = n[29] * (n[9] * r);
+        n[40] = n[29] * n[11], n[41] = n[31] * (n[5] * n[5]);
+    }
     int g = -1, last = -1;
+#if defined(__clang__)
+#pragma unroll
+#elif defined(__GNUC__)
+#pragma GCC unroll 34
+#endif
     for (const Region1Term& term : kRegion1) {
         if (term.I != last) {
             ++g;
@@ -150,7 +167,13 @@ struct Region1Gamma {
 template <class V, class W>
 inline Region1Gamma<V> region1_gamma(const Region1Temperature<W>& t, const V& pi, bool all) {
     const V x = 7.1 - pi;  // >= 1.05 for p <= 100 MPa
-    const auto px = powers<kRegion1MaxI + 1>(x);
+    // The exponents I of Table 2 (0..5, 8, 21, 23, 29..32) by short chains of products.
+    std::array<V, kRegion1MaxI + 1> px{};
+    px[0] = V(1.0), px[1] = x, px[2] = x * x, px[3] = px[2] * x, px[4] = px[2] * px[2], px[5] = px[4] * x;
+    px[8] = px[4] * px[4];
+    const V x16 = px[8] * px[8];
+    px[21] = x16 * px[5], px[23] = x16 * (px[5] * px[2]), px[29] = x16 * (px[8] * px[5]), px[30] = x16 * (px[8] * (px[5] * x));
+    px[31] = x16 * (px[8] * (px[5] * px[2])), px[32] = x16 * x16;
     V g(0.0), si(0.0), sj(0.0), sjj(0.0);
     for (std::size_t k = 0; k < static_cast<std::size_t>(kRegion1Groups); ++k) {
         const V xi = px[static_cast<std::size_t>(t.I[k])];
