@@ -184,6 +184,8 @@ void PemBatch::run(const double* inputs, std::size_t first, std::size_t count, d
     double* verdicts = work_.data() + 4 * n;
     PemChunk chunk{};
     chunk.spec = spec_;
+    for (Var v : slot_var_)
+        chunk.energy |= v == heat_duty || v == heat_gas_coolers || v == perf_efficiency_hhv || v == perf_efficiency_lhv;
     chunk.target = col[0];
     chunk.current_density = col[0];
     chunk.temperature = col[1];

@@ -41,6 +41,12 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
     };
     // The feed water's temperature is the batch's: the temperature part of region 1 once.
     const auto feed_part = kernel::region1_temperature(k.feed_temperature, false);
+    // The gas coolers' outlet at the batch's value (used where every lane of a vector is at least as warm).
+    const auto fixed_cool_part = kernel::region1_temperature(k.gas_cooler_temperature, false);
+    const double fixed_cool_p_sat = kernel::saturation_pressure_eq30(k.gas_cooler_temperature);
+    const double fixed_cool_h_vapour = kernel::water_vapour_enthalpy_low(d, k.gas_cooler_temperature);
+    const double fixed_cool_h_h2 = kernel::shomate_enthalpy(*d.hydrogen, 0.0, k.gas_cooler_temperature / 1000.0);
+    const double fixed_cool_h_o2 = kernel::shomate_enthalpy(*d.oxygen, 0.0, k.gas_cooler_temperature / 1000.0);
     const double hhv = -kLiquidWaterFormationEnthalpy / M_H2, lhv = -kWaterVapourFormationEnthalpy / M_H2;
     const double area_total = k.cells * k.stacks * k.area;
 
@@ -205,44 +211,51 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         const V aux = k.auxiliaries_fixed + k.auxiliaries_proportional * power;
         const V plant_total = power + rect_loss + aux;
 
-        // ---- energy balance (streams.cpp energy_balance) ----
-        const V p_liquid = max(pas, pcs);
-        skip = skip || !(V(k.feed_saturation_pressure) < p_liquid);  // steam feed: scalar path
-        const auto cool_part = kernel::region1_temperature(tcs, false);
-        const V h_liquid_cool = liquid_enthalpy(cool_part, max(p_liquid, p_sat_cool));
-        const V h_vapour = kernel::water_vapour_enthalpy_low(d, ts);
-        const auto dry_gas = [&](const V& n_h2, const V& n_o2, const V& temperature, const V& h2, const V& o2) {
-            (void)temperature;
-            return zero + select(n_h2 > zero, n_h2 * h2, zero) + select(n_o2 > zero, n_o2 * o2, zero);
-        };
-        const V h_gas_stack[2] = {dry_gas(cathode_h2, cathode_o2, ts, h_h2, h_o2), dry_gas(anode_h2, anode_o2, ts, h_h2, h_o2)};
-        const V condensate_total = condensate[0] + condensate[1];
-        const V feed_h = liquid_enthalpy(feed_part, p_liquid);
-        const V h_in = zero + (makeup * feed_h + condensate_total * h_liquid_cool);
-        V h_out = zero;
-        for (int s = 0; s < 2; ++s) h_out = h_out + (h_gas_stack[s] + vapour_stack[s] * h_vapour);
-        if (!k.drag_returned) {
-            const V h_liquid_stack = liquid_enthalpy(stack_part, max(p_liquid, p_sat));
-            h_out = h_out + select(drain > zero, drain * h_liquid_stack, zero);
-        }
+        // ---- energy balance (streams.cpp energy_balance), when an output asked for needs it ----
         const V loss = k.heat_loss_coefficient * k.stacks * (ts - k.ambient_temperature);
-        const V released = power + h_in - h_out;
-        const V duty = released - loss;
-        V gas_coolers = zero;
-        {
-            const V tc = tcs / 1000.0;
-            const V h_h2_cool = kernel::shomate_enthalpy(*d.hydrogen, 0.0, tc);
-            const V h_o2_cool = kernel::shomate_enthalpy(*d.oxygen, 0.0, tc);
-            const V h_vapour_cool = kernel::water_vapour_enthalpy_low(d, tcs);
+        const V condensate_total = condensate[0] + condensate[1];
+        V duty = nan, gas_coolers = nan;
+        if (c.energy) {
+            const V p_liquid = max(pas, pcs);
+            skip = skip || !(V(k.feed_saturation_pressure) < p_liquid);  // steam feed: scalar path
+            // The gas coolers' outlet is the batch's where no stack is cooler (the usual case): the
+            // temperature parts once, the same operations as per lane.
+            const bool cool_fixed = !lanes::any_lane(tcs < k.gas_cooler_temperature);
+            V h_liquid_cool, h_vapour_cool, h_h2_cool, h_o2_cool;
+            if (cool_fixed) {
+                h_liquid_cool = liquid_enthalpy(fixed_cool_part, max(p_liquid, V(fixed_cool_p_sat)));
+                h_vapour_cool = V(fixed_cool_h_vapour), h_h2_cool = V(fixed_cool_h_h2), h_o2_cool = V(fixed_cool_h_o2);
+            } else {
+                h_liquid_cool = liquid_enthalpy(kernel::region1_temperature(tcs, false), max(p_liquid, p_sat_cool));
+                h_vapour_cool = kernel::water_vapour_enthalpy_low(d, tcs);
+                const V tc = tcs / 1000.0;
+                h_h2_cool = kernel::shomate_enthalpy(*d.hydrogen, 0.0, tc);
+                h_o2_cool = kernel::shomate_enthalpy(*d.oxygen, 0.0, tc);
+            }
+            const V h_vapour = kernel::water_vapour_enthalpy_low(d, ts);
+            const auto dry_gas = [&](const V& n_h2, const V& n_o2, const V& h2, const V& o2) {
+                return zero + select(n_h2 > zero, n_h2 * h2, zero) + select(n_o2 > zero, n_o2 * o2, zero);
+            };
+            const V h_gas_stack[2] = {dry_gas(cathode_h2, cathode_o2, h_h2, h_o2), dry_gas(anode_h2, anode_o2, h_h2, h_o2)};
+            const V feed_h = liquid_enthalpy(feed_part, p_liquid);
+            const V h_in = zero + (makeup * feed_h + condensate_total * h_liquid_cool);
+            V h_out = zero;
+            for (int s = 0; s < 2; ++s) h_out = h_out + (h_gas_stack[s] + vapour_stack[s] * h_vapour);
+            if (!k.drag_returned) {
+                const V h_liquid_stack = liquid_enthalpy(stack_part, max(p_liquid, p_sat));
+                h_out = h_out + select(drain > zero, drain * h_liquid_stack, zero);
+            }
+            const V released = power + h_in - h_out;
+            duty = released - loss;
+            gas_coolers = zero;
             const M cooled = tcs < ts;
             for (int s = 0; s < 2; ++s) {
                 const V term = h_gas_stack[s] + vapour_stack[s] * h_vapour -
-                               dry_gas(side_h2[s], side_o2[s], tcs, h_h2_cool, h_o2_cool) - vapour_out[s] * h_vapour_cool -
+                               dry_gas(side_h2[s], side_o2[s], h_h2_cool, h_o2_cool) - vapour_out[s] * h_vapour_cool -
                                condensate[s] * h_liquid_cool;
                 gas_coolers = gas_coolers + select(cooled && !(dry[s] + vapour_stack[s] <= zero), term, zero);
             }
         }
-
         // ---- outputs (streams.cpp fill_outputs, alarms.cpp fill_alarms) ----
         put(cell_voltage, voltage);
         put(cell_reversible_voltage, e_rev);
@@ -300,7 +313,7 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         put(heat_duty, duty);
         put(heat_gas_coolers, gas_coolers);
         put(heat_feed_heating, zero);
-        const V energy_in = power + 0.0 + max(zero, -duty);
+        const V energy_in = power + 0.0 + max(zero, -duty);  // NaN without the energy balance (not stored then)
         put(perf_specific_energy, power / h2_kg);
         put(perf_specific_energy_plant, plant_total / h2_kg);
         put(perf_efficiency_hhv, select(energy_in > zero, h2_kg * hhv / energy_in, zero));

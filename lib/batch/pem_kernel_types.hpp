@@ -37,7 +37,8 @@ struct PemConstants {
 /// when variable v is not asked for) and a verdict per point: 0 solved, 1 solved with an alarm raised,
 /// 2 not taken (outside what the kernel covers: the caller solves that point on the scalar path).
 struct PemChunk {
-    int spec;  // 0 current density given, 1 stack power given, 2 cell voltage given
+    int spec;     // 0 current density given, 1 stack power given, 2 cell voltage given
+    bool energy;  // an output that needs the energy balance is asked for (heat duty, gas coolers, efficiencies)
     const double* target;  // spec 1, 2: the drive value per point
     const double* current_density;
     const double* temperature;

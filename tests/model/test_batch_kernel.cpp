@@ -21,8 +21,11 @@ TEST(BatchKernel, EveryInstructionSetEqualsTheScalarSolve) {
     const Block block(load_config_file(test::source_path("examples/minimal/pem.json")));
     const int32_t in[] = {block.find("in.current_density"), block.find("in.temperature"),
                           block.find("in.pressure_cathode"), block.find("in.pressure_anode")};
-    const int32_t out[] = {block.find("cell.voltage"), block.find("product.hydrogen"), block.find("gas.h2_in_o2"),
-                           block.find("heat.gas_coolers"), block.find("in.temperature"), block.find("param.cells")};
+    // With an output of the energy balance (heat.gas_coolers) and without (the kernel leaves it out).
+    const int32_t with_heat[] = {block.find("cell.voltage"), block.find("product.hydrogen"), block.find("gas.h2_in_o2"),
+                                 block.find("heat.gas_coolers"), block.find("in.temperature"), block.find("param.cells")};
+    const int32_t without_heat[] = {block.find("cell.voltage"), block.find("product.hydrogen"), block.find("gas.h2_in_o2"),
+                                    block.find("perf.specific_energy"), block.find("in.temperature"), block.find("param.cells")};
     constexpr std::size_t kPoints = 301;  // a part-filled last vector
     std::mt19937_64 rng(11);
     std::uniform_real_distribution<double> j(100.0, 4.0e4), t(300.0, 370.0), pc(1e5, 40e5), pa(1e5, 3e5);
@@ -34,7 +37,8 @@ TEST(BatchKernel, EveryInstructionSetEqualsTheScalarSolve) {
 
     const auto isas = batch::instruction_sets();
     ASSERT_FALSE(isas.empty());
-    for (const char* isa : isas) {
+    for (const char* isa : isas)
+      for (const int32_t* out : {with_heat, without_heat}) {
         batch::PemBatch fast(block, 4, in, 6, out, isa);
         ASSERT_TRUE(fast.usable()) << isa;
         EXPECT_STREQ(fast.instruction_set(), isa);
