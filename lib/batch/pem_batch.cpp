@@ -3,6 +3,7 @@
 #include "batch/pem_batch.hpp"
 
 #include <algorithm>
+#include <iterator>
 #include <cmath>
 #include <cstring>
 #include <limits>
@@ -37,8 +38,30 @@ const Isa kIsas[] = {
 };
 
 // Outputs of the table that the kernel does not give (a cell built from a reaction table only).
+// The outputs the kernel writes (every put() of pem_kernel.hpp): an allow-list, so that an output
+// added to the table later (the plant in time added a dozen) goes to the scalar path until the
+// kernel computes it.
+constexpr Var kKernelOutputs[] = {
+    cell_voltage, cell_reversible_voltage, cell_thermoneutral_voltage, cell_activation_anode,
+    cell_activation_cathode, cell_ohmic, cell_concentration, cell_degradation, cell_current_density,
+    cell_faraday_efficiency, cell_caustic_efficiency, cell_chlorine_efficiency, stack_current,
+    stack_voltage, stack_power, plant_rectifier_loss, plant_rectifier_efficiency,
+    plant_auxiliary_power, plant_power, product_hydrogen, product_oxygen, product_chlorine,
+    product_caustic, product_caustic_solution, feed_water, feed_salt, feed_hydrogen, feed_sweep_air,
+    stream_cathode_mass_flow, stream_cathode_temperature, stream_cathode_pressure,
+    stream_cathode_x_h2, stream_cathode_x_o2, stream_cathode_x_h2o, stream_anode_mass_flow,
+    stream_anode_temperature, stream_anode_pressure, stream_anode_x_o2, stream_anode_x_h2,
+    stream_anode_x_cl2, stream_anode_x_h2o, stream_anode_x_n2, stream_condensate_mass_flow,
+    stream_drain_mass_flow, stream_dryer_loss_mass_flow, gas_h2_in_o2, gas_o2_in_h2, gas_o2_in_cl2,
+    heat_loss, heat_duty, heat_gas_coolers, heat_feed_heating, perf_specific_energy,
+    perf_specific_energy_plant, perf_efficiency_hhv, perf_efficiency_lhv, perf_water_per_hydrogen,
+    perf_specific_energy_chlorine, perf_load_fraction, perf_specific_energy_caustic,
+    perf_salt_per_chlorine, perf_water_per_chlorine, perf_salt_per_caustic, perf_water_per_caustic,
+    alarm_h2_in_o2_warning, alarm_h2_in_o2_trip, alarm_temperature_high, alarm_current_density_high,
+    alarm_load_low, alarm_extrapolated, alarm_any};
+
 bool kernel_gives(Var v) {
-    return v != cell_main_product_efficiency && v != product_main && v != perf_specific_energy_main;
+    return std::find(std::begin(kKernelOutputs), std::end(kKernelOutputs), v) != std::end(kKernelOutputs);
 }
 
 }  // namespace
@@ -146,7 +169,7 @@ PemBatch::PemBatch(const Block& block, int32_t n_inputs, const int32_t* input_in
     k.degradation_resistance = block.value(par_degradation_resistance_rate);
     k.feed_temperature = block.value(in_feed_temperature);
     k.gas_cooler_temperature = block.value(par_gas_cooler_temperature);
-    k.ambient_temperature = block.value(par_ambient_temperature);
+    k.ambient_temperature = block.value(in_ambient_temperature);
     k.heat_loss_coefficient = block.value(par_heat_loss_coefficient);
     k.drag_returned = design.drag_water_returned;
     k.rectifier_rated_power = block.rectifier_rated_power();
