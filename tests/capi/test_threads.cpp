@@ -1,4 +1,4 @@
-// Handles are independent: eight threads, each on its own handle of one technology (all five
+// Handles are independent: eight threads, each on its own handle of one technology (all six
 // technologies run at once), each with inputs of its own. Every status is checked, and every
 // value equals, bit for bit, a serial run of the same work on one thread.
 #include <cstdint>
@@ -21,7 +21,8 @@ struct Range {
     double j_low, j_high;
 };
 const Range kRanges[] = {{"pem", 3000, 20000}, {"alkaline", 1000, 4000}, {"solid_oxide", 1500, 6000},
-                         {"brine", 1500, 4500}, {"custom", 300, 3000}};
+                         {"brine", 1500, 4500}, {"custom", 300, 3000}, {"aem", 2000, 10000}};
+constexpr int kTechnologies = static_cast<int>(sizeof kRanges / sizeof kRanges[0]);
 
 struct Work {
     std::vector<int32_t> statuses;
@@ -38,7 +39,7 @@ uint64_t bits_of(double v) {
 // The work of thread `t`: a sweep with its own current densities (offset by t) on its own
 // technology; nothing in it may fail.
 Work run(int t) {
-    const Range& r = kRanges[t % 5];
+    const Range& r = kRanges[t % kTechnologies];
     capi_test::Block block(capi_test::minimal_config(r.technology));
     Work w;
     if (!block.get()) return w;
@@ -71,9 +72,9 @@ TEST(Threads, EightHandlesOfEveryTechnologyMatchASerialRunBitForBit) {
     for (int t = 0; t < kThreads; ++t) serial.push_back(run(t));
     for (int t = 0; t < kThreads; ++t) {
         ASSERT_EQ(serial[t].statuses.size(), static_cast<size_t>(kPoints) * (1 + serial[t].bits.size() / kPoints))
-            << kRanges[t % 5].technology;
+            << kRanges[t % kTechnologies].technology;
         for (int32_t s : serial[t].statuses)
-            ASSERT_TRUE(s == ELY_OK || s == ELY_WARNING) << kRanges[t % 5].technology << ": status " << s << ", "
+            ASSERT_TRUE(s == ELY_OK || s == ELY_WARNING) << kRanges[t % kTechnologies].technology << ": status " << s << ", "
                                                          << serial[t].first_error;
         ASSERT_FALSE(serial[t].bits.empty());
     }
@@ -84,12 +85,12 @@ TEST(Threads, EightHandlesOfEveryTechnologyMatchASerialRunBitForBit) {
     for (auto& th : threads) th.join();
 
     for (int t = 0; t < kThreads; ++t) {
-        SCOPED_TRACE(kRanges[t % 5].technology);
+        SCOPED_TRACE(kRanges[t % kTechnologies].technology);
         EXPECT_EQ(parallel[t].statuses, serial[t].statuses);
         EXPECT_EQ(parallel[t].bits, serial[t].bits);
         EXPECT_EQ(parallel[t].first_error, "");
     }
     // The threads worked on different inputs: no two sequences are alike.
     for (int t = 1; t < kThreads; ++t) EXPECT_NE(serial[t].bits, serial[t - 1].bits);
-    EXPECT_NE(serial[0].bits, serial[5].bits);  // same technology, other inputs
+    EXPECT_NE(serial[0].bits, serial[kTechnologies].bits);  // same technology, other inputs
 }

@@ -96,6 +96,22 @@ def summary_rows(text):
 
 # --- item 14: version, help per command, one-line usage errors ---------------------------------
 
+def case_every_example_solves():
+    """Every bundled plant description (examples/*.json, examples/minimal/*.json) solves from the
+    command line; its outputs keep the identities of a DC stack: the cell voltage above the
+    reversible voltage (a driven cell), stack power = stack voltage x total current."""
+    files = sorted(os.path.join(d, f) for d in (os.path.join(SRC, "examples"), MINIMAL)
+                   for f in os.listdir(d) if f.endswith(".json"))
+    expect(len(files) >= 9, f"only {len(files)} examples found")
+    for path in files:
+        out, _ = run_ok("solve", path, "--format", "json")
+        v = {k: x["value"] for k, x in json.loads(out)["variables"].items()}
+        name = os.path.relpath(path, SRC)
+        expect(v["cell.voltage"] > v["cell.reversible_voltage"] > 0, f"{name}: cell voltage {v['cell.voltage']}")
+        expect(math.isclose(v["stack.power"], v["stack.voltage"] * v["stack.current"], rel_tol=1e-12),
+               f"{name}: stack power {v['stack.power']} != {v['stack.voltage']} * {v['stack.current']}")
+
+
 def case_version_and_help():
     out, _ = run_ok("--version")
     expect(re.fullmatch(r"elyblock \d+\.\d+\.\d+ \(ABI 1\)\n", out), f"--version: {out!r}")

@@ -309,6 +309,17 @@ static int run_calls(const wchar_t* plant_path) {
                   close_rel(single, out[k], 1e-12), "batch point %d: %.17g vs %.17g", k, out[k], single);
         again[k] = out[k];
     }
+    /* The same batch on two threads: the same values (the result does not depend on the thread count). */
+    {
+        double threaded[N];
+        int32_t threaded_status[N];
+        CHECK(CALL(ely_block_solve_batch_threads)(copy, N, 1, (int32_t[]){i_j}, in, 1, outputs, threaded,
+                                                  threaded_status, 2, 0, 0) == ELY_OK,
+              "threaded batch: %s", last_error());
+        for (int k = 0; k < N; ++k)
+            CHECK(threaded_status[k] == status[k] && close_rel(threaded[k], out[k], 1e-12),
+                  "threaded batch point %d: %.17g vs %.17g", k, threaded[k], out[k]);
+    }
 
     /* A fit: the contact resistance recovered from the curve made at its default value. */
     const int32_t i_r = find(copy, L"param.cell.contact_resistance");
