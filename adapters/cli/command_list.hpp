@@ -6,6 +6,7 @@
     X(solve)                 \
     X(sweep)                 \
     X(run)                   \
+    X(fmu)                   \
     X(variables)             \
     X(water)                 \
     X(version)               \
