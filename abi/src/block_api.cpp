@@ -166,7 +166,11 @@ ELY_API int32_t ely_block_solve_batch(const ely_block* block, size_t n_points, i
         ely::capi::check_table(block->model, n_points, "n_points", n_inputs, input_indices, inputs, n_outputs,
                                output_indices, outputs, point_status, "point_status");
 
+        // The working copy returns to the block's state at the start of the batch after a failed
+        // point (not to the block's last successful solve: inputs, parameters and the spec set
+        // since then hold for every point).
         ely::Block work = block->model;
+        work.keep_state_for_rollback();
         std::string first_failure, first_warning;
         bool any_warning = false, any_failure = false, cancelled = false;
         const double nan = std::numeric_limits<double>::quiet_NaN();

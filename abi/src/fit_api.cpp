@@ -1,5 +1,5 @@
-// The calibration calls of the C interface (ely_block_fit, the ely_fit result) and unit
-// conversion: thin wrappers over lib/calibration and lib/config/units, each inside guard().
+// The calibration calls of the C interface (ely_block_fit, the ely_fit result): thin wrappers
+// over lib/calibration, each inside guard(). Unit conversion is in units_api.cpp.
 #include <cmath>
 #include <cstring>
 #include <limits>
@@ -8,7 +8,6 @@
 
 #include "block_handle.hpp"
 #include "calibration/fit.hpp"
-#include "config/units.hpp"
 #include "elyblock/elyblock.h"
 #include "guard.hpp"
 
@@ -147,33 +146,26 @@ ELY_API int32_t ely_fit_parameter(const ely_fit* fit, int32_t k, double* value, 
     });
 }
 
-ELY_API void ely_fit_destroy(ely_fit* fit) { delete fit; }
-
-ELY_API int32_t ely_convert_unit(double value, const char* from_unit, const char* to_unit, double* result) {
+ELY_API int32_t ely_fit_rmse(const ely_fit* fit, int32_t o, double* rmse, size_t* rows) {
     return guard([&] {
-        require_pointer(from_unit, "from_unit");
-        require_pointer(to_unit, "to_unit");
-        require_pointer(result, "result");
-        if (!std::isfinite(value)) throw Error(ErrorKind::invalid_argument, "value " + std::to_string(value) + " is not a finite number");
-        try {
-            const ely::Unit to = ely::parse_unit(to_unit);
-            double x;
-            if (to.offset == 0) {
-                x = ely::convert_unit(value, from_unit, to_unit);
-            } else {
-                // A target with an offset (degC): through kelvin.
-                const double kelvin = ely::convert_unit(value, from_unit, "K");
-                x = (kelvin - to.offset) / to.factor();
-            }
-            if (!std::isfinite(x)) throw Error(ErrorKind::invalid_argument, "the converted value is not a finite number");
-            *result = x;
-        } catch (const Error& e) {
-            // Unit errors are config errors inside the model; here the unit is an argument.
-            if (e.kind() == ErrorKind::config) throw Error(ErrorKind::invalid_argument, e.what());
-            throw;
+        require_pointer(fit, "fit");
+        if (rmse == nullptr && rows == nullptr) throw Error(ErrorKind::invalid_argument, "rmse and rows are both NULL");
+        const auto& r = fit->result;
+        const size_t n = r.measured_names.size();
+        if (o < 0 || static_cast<size_t>(o) >= n)
+            throw Error(ErrorKind::invalid_argument,
+                        "measured variable " + std::to_string(o) + " is outside 0.." + std::to_string(n - 1));
+        const auto at = static_cast<size_t>(o);
+        if (rmse) *rmse = r.rmse[at];
+        if (rows) {
+            size_t count = 0;  // the rows the residuals cover: where the variable was measured
+            for (size_t i = 0; i < r.points; ++i) count += std::isnan(r.residuals[i * n + at]) ? 0 : 1;
+            *rows = count;
         }
         return ELY_OK;
     });
 }
+
+ELY_API void ely_fit_destroy(ely_fit* fit) { delete fit; }
 
 }  // extern "C"

@@ -18,15 +18,6 @@ struct SolveOptions {
     std::string units;
 };
 
-std::string report_json(const Block& block) {
-    size_t needed = 0;
-    check(ely_block_report_json(block.handle(), nullptr, 0, &needed), "report");
-    std::string text(needed, '\0');
-    check(ely_block_report_json(block.handle(), text.data(), text.size(), &needed), "report");
-    text.resize(needed - 1);  // the NUL
-    return text;
-}
-
 int run(const SolveOptions& o) {
     if (!o.units.empty() && o.format != "csv")
         throw UsageError{"--units: the table shows engineering units and the JSON report SI units; --units goes with "
@@ -37,7 +28,7 @@ int run(const SolveOptions& o) {
     // The warning text belongs to the solve; later calls replace the last-error message.
     const std::string warning = status == ELY_WARNING ? last_error() : "";
     Output out;
-    if (o.format == "json") out.print("{}\n", report_json(*block));
+    if (o.format == "json") out.print("{}\n", buffer_text(&ely_block_report_json, block->handle(), "report"));
     else if (o.format == "csv") write_variables_csv(*block, out, o.units == "engineering" ? Units::engineering : Units::si);
     else write_summary(*block, out, warning);
     out.close();

@@ -6,6 +6,7 @@
     X(solve)                 \
     X(sweep)                 \
     X(run)                   \
+    X(fit)                   \
     X(fmu)                   \
     X(variables)             \
     X(water)                 \

@@ -7,14 +7,12 @@
 #include <fmt/format.h>
 
 #include <cstdio>
-#include <cstring>
 #include <exception>
 #include <sstream>
 #include <utility>
 #include <vector>
 
 #include "command.hpp"
-#include "fit_command.hpp"
 #include "command_list.hpp"
 #include "errors.hpp"
 #include "output.hpp"
@@ -118,8 +116,6 @@ int main(int argc, char** argv) {
     }
     // Nothing escapes main: a failure writing help or a version, memory running out, a bug.
     try {
-        // `fit` keeps its own parser until it moves to a cmd_fit.cpp of the command list.
-        if (argc > 1 && std::strcmp(argv[1], "fit") == 0) return run_fit_command(argc, argv);
         return run(argc, argv);
     } catch (const Failure& e) {
         print_error(e.message);

@@ -57,6 +57,13 @@ std::string spec_reading(Block& block, const Variable& v) {
     return drive_input_of(spec) == name && is_spec(block, spec) ? spec : std::string();
 }
 
+// "sweeping", "fitting", "solving": what the command does with the spec it chose.
+std::string doing(const std::string& command) {
+    if (command == "sweep") return "sweeping";
+    if (command == "fit") return "fitting";
+    return "solving";
+}
+
 struct DriveRequest {
     std::string by;    // "--set in.power", "--over in.current_density"
     std::string spec;  // the spec that reads it
@@ -88,24 +95,32 @@ void choose_spec(Block& block, const PlantOptions& o, const std::string& command
                              ""};
     check(ely_block_set_spec(block.handle(), wanted->spec.c_str()), "spec");
     note(command, fmt::format("the plant's spec {} does not read {}; {} with spec {} (choose one with --spec)",
-                              in_force, drive_input_of(wanted->spec), command == "sweep" ? "sweeping" : "solving",
+                              in_force, drive_input_of(wanted->spec), doing(command),
                               wanted->spec));
 }
 
 }  // namespace
 
 std::unique_ptr<Block> open_plant(const PlantOptions& o, const std::string& command, const VariedInput& varied) {
+    return open_plant(o, command, [&varied](const Block&) {
+        return varied.name.empty() ? std::vector<VariedInput>{} : std::vector<VariedInput>{varied};
+    });
+}
+
+std::unique_ptr<Block> open_plant(const PlantOptions& o, const std::string& command,
+                                  const std::function<std::vector<VariedInput>(const Block&)>& varied_of) {
     auto block = std::make_unique<Block>(o.config);
+    const std::vector<VariedInput> varied = varied_of(*block);
     std::vector<DriveRequest> requests;
-    if (!varied.name.empty()) {
-        const Variable& v = variable_named(*block, varied.name, varied.option);
+    for (const VariedInput& in : varied) {
+        const Variable& v = variable_named(*block, in.name, in.option);
         if (!v.is_input())
-            throw UsageError{fmt::format("{}: '{}' is {}; {} an input: {}", varied.option, varied.name,
+            throw UsageError{fmt::format("{}: '{}' is {}; {} an input: {}", in.option, in.name,
                                          v.is_output() ? "an output" : "a parameter", command,
                                          block->names_where([](const Variable& x) { return x.is_input(); })),
                              ""};
         const std::string spec = spec_reading(*block, v);
-        if (!spec.empty()) requests.push_back({varied.option + " " + varied.name, spec});
+        if (!spec.empty()) requests.push_back({in.option + " " + in.name, spec});
     }
     if (!o.spec.empty() && !block->try_set_spec(o.spec)) throw UsageError{"--spec: " + last_error(), ""};
     for (const auto& assignment : o.sets) {
@@ -121,8 +136,8 @@ std::unique_ptr<Block> open_plant(const PlantOptions& o, const std::string& comm
             throw UsageError{fmt::format("{}: '{}' is an output; set an input (in.…) or a tunable parameter (param.…)",
                                          option, name),
                              ""};
-        if (!varied.name.empty() && name == varied.name)
-            throw UsageError{fmt::format("{}: {} already varies it", option, varied.option), ""};
+        for (const VariedInput& in : varied)
+            if (name == in.name) throw UsageError{fmt::format("{}: {} already varies it", option, in.option), ""};
         const double value = read_quantity(assignment.substr(eq + 1), v.info.unit, option);
         if (ely_block_set(block->handle(), v.index, value) < 0) throw UsageError{option + ": " + last_error(), ""};
         const std::string spec = spec_reading(*block, v);

@@ -1,6 +1,7 @@
 #pragma once
 // What every command that solves the plant takes: the plant description, --spec and --set, and
 // how the spec is chosen when the command line names a drive input the plant's spec does not read.
+#include <functional>
 #include <memory>
 #include <string>
 #include <vector>
@@ -34,6 +35,12 @@ struct VariedInput {
 /// says so; with --spec given, or two drive inputs of different specs, it is a UsageError.
 std::unique_ptr<Block> open_plant(const PlantOptions& options, const std::string& command,
                                   const VariedInput& varied = {});
+
+/// As above for a command that varies several inputs known only once the plant is open (fit: the
+/// input columns of its data file): `varied_of` is called with the block before --spec and --set
+/// are applied, and each input it returns is treated as `varied` above.
+std::unique_ptr<Block> open_plant(const PlantOptions& options, const std::string& command,
+                                  const std::function<std::vector<VariedInput>(const Block&)>& varied_of);
 
 /// The variable of that name; UsageError "<option>: <library's message>" pointing at the
 /// `variables` command when the plant has none.

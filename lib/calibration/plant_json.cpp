@@ -80,6 +80,10 @@ std::string calibrated_plant_json(const Block& block, const std::vector<int32_t>
             if (std::strcmp(info.config_key, variable_info(par_current_density_max).config_key) == 0 && !(start > 0) &&
                 value == block.design().cell->envelope().current_density_max)
                 continue;
+            // Likewise the rated current density holds the technology's default when none is given.
+            if (std::strcmp(info.config_key, variable_info(par_rated_current_density).config_key) == 0 &&
+                !(start > 0) && value == block.default_rated_current_density())
+                continue;
         }
         write_at(root.as_object(), info.config_key, quantity_string(value, info.unit));
     }

@@ -26,6 +26,8 @@ const std::vector<VariableInfo>& Cell::own_outputs() const {
 
 void Cell::fill_own_outputs(const CellResult&, const PlantFlows&, double*) const {}
 
+void Cell::solution_streams(const CellResult&, const PlantFlows&, SolutionStreams& out) const { out.count = 0; }
+
 uint32_t check_envelope(const Envelope& e, const OperatingPoint& p, const char* model) {
     const auto inside = [](double v, double lo, double hi) { return v >= lo && v <= hi; };  // false for NaN
     if (!(inside(p.temperature, e.temperature_min, e.temperature_max) &&

@@ -15,6 +15,7 @@
 
 #include "base/variable_info.hpp"
 #include "cells/parameters.hpp"
+#include "electrochem/electrolyte.hpp"
 
 namespace ely {
 
@@ -101,6 +102,16 @@ struct CellResult {
     double caustic_mass_fraction = 0;  // catholyte NaOH strength, kg/kg
     double anolyte_nacl_molality = 0;  // depleted anolyte brine strength, mol/kg of water
 
+    // Solid oxide: mol of sweep air entering the oxygen electrode per mol of O2 made (0: no sweep, the
+    // anode gas is the oxygen made).
+    double oxygen_electrode_sweep = 0;
+
+    // Custom cells: the enthalpy flow of the reactions' species outside the component list (ions, metals,
+    // melts; products positive, reactants negative) at the cell temperature, W/m²; and, for a table without
+    // enthalpy data, that the heat must come from the thermoneutral voltage, N·I·(V − E_tn).
+    double other_species_enthalpy = 0;
+    bool heat_from_thermoneutral_voltage = false;
+
     uint32_t warnings = 0;  // CellWarning bits
 
     // Custom cells: one entry per half-reaction, its share of its electrode's current.
@@ -114,6 +125,22 @@ struct PlantFlows {
     Fluxes cathode{}, anode{}, consumed{};
     double anode_vapour = 0;  // mol/s of water vapour in the wet anode gas
     double drag = 0;          // mol/s of liquid water carried anode → cathode
+};
+
+/// A salt solution a cell takes in or gives off besides its products, plant totals in mol/s: the brine
+/// cell's resaturated brine (in) and depleted brine (out). The unit layer's energy balance counts each at
+/// its composition (heats of mixing included): an inlet at the feed temperature, an outlet at the stack
+/// temperature. The water of an inlet is part of feed.water (the plant's net make-up), that of an outlet
+/// is returned to it.
+struct SolutionStream {
+    AqueousSalt salt;
+    double water;   // mol/s
+    double solute;  // mol/s
+    bool inlet;
+};
+struct SolutionStreams {
+    std::array<SolutionStream, 2> streams{};
+    int count = 0;
 };
 
 class Cell {
@@ -137,6 +164,8 @@ public:
     virtual const std::vector<VariableInfo>& own_outputs() const;
     /// Their values at a result, in own_outputs() order; allocates nothing.
     virtual void fill_own_outputs(const CellResult& result, const PlantFlows& flows, double* values) const;
+    /// The salt solutions the cell exchanges at a result (none by default); allocates nothing.
+    virtual void solution_streams(const CellResult& result, const PlantFlows& flows, SolutionStreams& out) const;
 };
 
 /// Checks a point against an envelope: throws out_of_range naming the limit; returns the

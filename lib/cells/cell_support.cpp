@@ -61,28 +61,25 @@ double crossover_minimum_current_density(const CrossoverFluxes& x, const Recombi
 }
 
 void fill_water_cell_gases(CellResult& r, double j_e, const CrossoverFluxes& x, const Recombination& rc,
-                           const char* model, const OperatingPoint& p) {
-    const double j_min = crossover_minimum_current_density(x, rc);
-    if (!(j_e > j_min)) {
-        const std::string electrode =
-            j_e == p.current_density ? "" : fmt::format(" (electrode current density {:g} A/m2)", j_e);
-        throw Error(ErrorKind::out_of_range,
-                    fmt::format("{} cell: current density {:g} A/m2{} is at or below the minimum {:g} A/m2 at which the "
-                                "gas produced exceeds the gas crossover ({:g} K, anode {:g} Pa, cathode {:g} Pa)",
-                                model, p.current_density, electrode, j_min, p.temperature, p.pressure_anode,
-                                p.pressure_cathode));
-    }
-    const double h2_crossing = x.hydrogen_at(j_e);
-    const double o2_recombined = rc.oxygen_at_cathode * x.oxygen;
-    const double h2_recombined = rc.hydrogen_at_anode * h2_crossing;
-    r.cathode_out[kH2] = j_e / (2.0 * kFaraday) - h2_crossing - 2.0 * o2_recombined;
-    r.cathode_out[kO2] = x.oxygen - o2_recombined;
-    r.anode_out[kO2] = j_e / (4.0 * kFaraday) - x.oxygen - 0.5 * h2_recombined;
-    r.anode_out[kH2] = h2_crossing - h2_recombined;
-    r.consumed[kH2O] = r.cathode_out[kH2] + r.anode_out[kH2];
-    r.faraday_efficiency = r.cathode_out[kH2] / (p.current_density / (2.0 * kFaraday));
-    r.h2_in_o2 = r.anode_out[kH2] / (r.anode_out[kO2] + r.anode_out[kH2]);
-    r.o2_in_h2 = r.cathode_out[kO2] / (r.cathode_out[kH2] + r.cathode_out[kO2]);
+                           const OperatingPoint& p) {
+    const double j_gas = std::max(j_e, 0.0);
+    const double h2_made = j_gas / (2.0 * kFaraday), o2_made = j_gas / (4.0 * kFaraday);
+    const double h2_crossing = x.hydrogen_at(j_gas);
+    // Oxygen burnt by the anode catalyst and oxygen crossing to the cathode: at most what the anode makes.
+    const double o2_burnt_at_anode = std::min(0.5 * rc.hydrogen_at_anode * h2_crossing, o2_made);
+    const double o2_crossing = std::min(x.oxygen, o2_made - o2_burnt_at_anode);
+    const double o2_recombined = rc.oxygen_at_cathode * o2_crossing;
+    const double h2_net = h2_made - h2_crossing - 2.0 * o2_recombined;  // < 0: standby
+    r.cathode_out[kH2] = std::max(h2_net, 0.0);
+    r.consumed[kH2] = std::max(-h2_net, 0.0);  // drawn back from the product line
+    r.cathode_out[kO2] = o2_crossing - o2_recombined;
+    r.anode_out[kO2] = o2_made - o2_crossing - o2_burnt_at_anode;
+    r.anode_out[kH2] = h2_crossing - 2.0 * o2_burnt_at_anode;
+    r.consumed[kH2O] = r.cathode_out[kH2] + r.anode_out[kH2] - r.consumed[kH2];
+    r.faraday_efficiency = p.current_density > 0.0 ? r.cathode_out[kH2] / (p.current_density / (2.0 * kFaraday)) : 0.0;
+    const auto fraction = [](double part, double other) { return part > 0.0 ? part / (part + other) : 0.0; };
+    r.h2_in_o2 = fraction(r.anode_out[kH2], r.anode_out[kO2]);
+    r.o2_in_h2 = fraction(r.cathode_out[kO2], r.cathode_out[kH2]);
 }
 
 }  // namespace ely

@@ -27,8 +27,9 @@ double activation_overpotential(const ElectrodeKinetics& kinetics, bool tafel, d
 
 /// Start of a liquid-fed water cell's evaluation at p: the reversible voltage with the wet product
 /// gases over an electrolyte of the given water activity, the HHV thermoneutral voltage, gases
-/// leaving saturated. Returns true at open circuit (j = 0), where the result is complete: the
-/// voltage is the reversible voltage and no gas is made (crossover is not described there).
+/// leaving saturated. Returns true at open circuit (j = 0), where the voltage is the reversible
+/// voltage and every loss is 0; the caller still fills the gases (fill_water_cell_gases at zero
+/// electrode current: the crossover of a cell held at temperature and pressure, hot standby).
 bool start_liquid_water_cell(CellResult& result, const OperatingPoint& point, double water_activity);
 
 /// Gas crossing the separator of a water cell, mol/(m² s): hydrogen to the anode side, oxygen
@@ -54,15 +55,22 @@ struct Recombination {
 
 /// Smallest electrode current density whose gas production still exceeds what crosses and
 /// recombines, A/m² (both the hydrogen leaving the cathode and the oxygen leaving the anode
-/// stay positive).
+/// stay positive): below it the cell is in standby (fill_water_cell_gases).
 double crossover_minimum_current_density(const CrossoverFluxes& crossover, const Recombination& recombination);
 
-/// Gas bookkeeping of a water cell (PEM, alkaline): from the electrode current density (the
-/// current that makes gas), the terminal current density and the crossover, fills the product
-/// fluxes, the water consumed (one H2O per H2 leaving either side; recombined water stays in
-/// the loop), the Faraday efficiency on the terminal current and both purities. Throws
-/// out_of_range, naming the minimum, when the crossover exceeds the gas made.
+/// Gas bookkeeping of a water cell (PEM, alkaline, AEM): from the electrode current density (the
+/// current that makes gas, >= 0), the terminal current density and the crossover, fills the product
+/// fluxes, the water consumed (one H2O per H2 leaving either side; recombined water stays in the
+/// loop), the Faraday efficiency on the terminal current and both purities.
+///
+/// At any current density, zero included: oxygen can cross or burn hydrogen only as far as the anode
+/// makes it (at zero current none crosses and the anode catalyst burns nothing); hydrogen crosses as
+/// the membrane passes it. Below the current at which crossover equals production (hot standby, or
+/// a very low load) the cathode loses more hydrogen than it makes: nothing leaves as product, the
+/// shortfall is drawn back from the product line (consumed[kH2] > 0) and the anode gas is mostly the
+/// crossed hydrogen, so h2_in_o2 reports it (1 at zero current). Faraday efficiency: hydrogen
+/// delivered over j/2F (0 at or below that current).
 void fill_water_cell_gases(CellResult& result, double electrode_current_density, const CrossoverFluxes& crossover,
-                           const Recombination& recombination, const char* model, const OperatingPoint& point);
+                           const Recombination& recombination, const OperatingPoint& point);
 
 }  // namespace ely

@@ -95,29 +95,60 @@ public:
         has_species_ = true;
         for (const auto* side : {&spec_.anode, &spec_.cathode})
             for (const auto& h : *side) has_species_ = has_species_ && !h.species.empty();
+        for (int side = 0; side < 2; ++side) {
+            const bool anode = side == 0;
+            for (const auto& h : anode ? spec_.anode : spec_.cathode) {
+                makes_gas_[side] = makes_gas_[side] || reaction_makes_gas(h, anode);
+                auto& kinds = term_components_.emplace_back();
+                for (const auto& term : h.species) kinds.push_back(component_of(term.species));
+            }
+        }
     }
     const Envelope& envelope() const override { return spec_.envelope; }
     std::unique_ptr<Cell> clone() const override { return std::make_unique<CustomCell>(*this); }
-    double current_density_limit(const OperatingPoint&) const override {
-        return std::min({spec_.envelope.current_density_max, limit_sum(spec_.anode), limit_sum(spec_.cathode)});
+    double current_density_limit(const OperatingPoint& p) const override {
+        return std::min({spec_.envelope.current_density_max, limit_sum(spec_.anode, p.temperature),
+                         limit_sum(spec_.cathode, p.temperature)});
     }
     CellResult evaluate(const OperatingPoint& point) const override;
     const std::vector<VariableInfo>& own_outputs() const override { return outputs_->info; }
     void fill_own_outputs(const CellResult& r, const PlantFlows& flows, double* values) const override;
 
 private:
-    static double limit_sum(const std::vector<HalfReaction>& reactions) {
+    static double limit_sum(const std::vector<HalfReaction>& reactions, double t) {
         double s = 0.0;
-        for (const auto& r : reactions) s += r.limiting_current_density;
+        for (const auto& r : reactions) s += half_reaction_limiting_current_density(r, t);
         return s;
     }
+    // Where a species of a reaction goes in the flux arrays: a product gas, liquid water, or neither (-1:
+    // its enthalpy is counted in other_species_enthalpy).
+    static int component_of(const SpeciesRecord& species) {
+        if (species.phase == Phase::liquid && species.name == "H2O") return kH2O;
+        if (species.phase != Phase::gas) return -1;
+        if (species.name == "H2") return kH2;
+        if (species.name == "O2") return kO2;
+        if (species.name == "Cl2") return kCl2;
+        return -1;
+    }
+    // A gas made in the electrolysis direction (a reduction's products at the cathode, its reactants at the
+    // anode), or a product named as one of the stream gases.
+    static bool reaction_makes_gas(const HalfReaction& h, bool anode) {
+        if (h.species.empty()) return h.product == "H2" || h.product == "O2" || h.product == "Cl2";
+        for (const auto& term : h.species)
+            if (term.species.phase == Phase::gas && (anode ? term.coefficient < 0.0 : term.coefficient > 0.0)) return true;
+        return false;
+    }
+    void fill_fluxes_from_species(CellResult& r, double j, double t) const;
+    void fill_fluxes_from_products(CellResult& r, double j) const;
     // Solves Σ j_k = j at one electrode. `u_k` holds the reactions' equilibrium potentials
     // expressed in the electrode's driving variable u (u = Φ at the anode, u = −Φ at the
     // cathode, so that η_k = u − u_k); on return it holds the shares j_k/Σj_k.
     ElectrodeSolution solve_electrode(const std::vector<HalfReaction>& reactions, bool anode, double j, double t,
                                       double* u_k) const;
     CustomCellSpec spec_;
-    bool has_species_ = false;  // every reaction has species: E_tn from their enthalpies
+    bool has_species_ = false;  // every reaction has species: E_tn and the fluxes from them
+    bool makes_gas_[2] = {false, false};             // anode, cathode: some reaction makes a gas
+    std::vector<std::vector<int>> term_components_;  // per reaction (anode first), per species term
     std::shared_ptr<const ReactionOutputs> outputs_;
 };
 
@@ -144,7 +175,7 @@ ElectrodeSolution CustomCell::solve_electrode(const std::vector<HalfReaction>& r
             const auto& kin = reactions[k].kinetics;
             const double j0 = half_reaction_exchange_current_density(reactions[k], anode, t);
             const auto c = limited_bv(u - u_k[k], j0, kin.alpha_forward * f, kin.alpha_backward * f,
-                                      j0 / reactions[k].limiting_current_density);
+                                      j0 / half_reaction_limiting_current_density(reactions[k], t));
             sum.current += c.current;
             sum.slope += c.slope;
         }
@@ -200,7 +231,7 @@ ElectrodeSolution CustomCell::solve_electrode(const std::vector<HalfReaction>& r
         const auto& kin = reactions[k].kinetics;
         const double j0 = half_reaction_exchange_current_density(reactions[k], anode, t);
         const auto c = limited_bv(u - u_k[k], j0, kin.alpha_forward * f, kin.alpha_backward * f,
-                                  j0 / reactions[k].limiting_current_density);
+                                  j0 / half_reaction_limiting_current_density(reactions[k], t));
         sum_current += c.current;
         sum_slope += c.slope;
         if (c.current > largest) { largest = c.current; main = k; }
@@ -210,7 +241,7 @@ ElectrodeSolution CustomCell::solve_electrode(const std::vector<HalfReaction>& r
         const auto& kin = reactions[k].kinetics;
         const double j0 = half_reaction_exchange_current_density(reactions[k], anode, t);
         const auto c = limited_bv(u - u_k[k], j0, kin.alpha_forward * f, kin.alpha_backward * f,
-                                  j0 / reactions[k].limiting_current_density);
+                                  j0 / half_reaction_limiting_current_density(reactions[k], t));
         u_k[k] = differential ? c.slope / sum_slope : c.current / sum_current;
     }
     return {anode ? u : -u, main};
@@ -220,9 +251,16 @@ CellResult CustomCell::evaluate(const OperatingPoint& p) const {
     CellResult r;
     r.warnings = check_envelope(spec_.envelope, p, "custom");
     const double t = p.temperature, j = p.current_density;
+    // Wet gases leave saturated over the electrolyte: an electrode that makes gas needs a pressure above
+    // the water vapour pressure over it (the water cells' rule; refused, never a negative flow).
+    if (spec_.water_activity > 0.0) {
+        if (makes_gas_[0]) wet_gas_partial_pressure(p.pressure_anode, t, spec_.water_activity, "custom cell: anode pressure");
+        if (makes_gas_[1])
+            wet_gas_partial_pressure(p.pressure_cathode, t, spec_.water_activity, "custom cell: cathode pressure");
+    }
     for (int side = 0; side < 2; ++side) {
         const bool anode = side == 0;
-        const double limit = limit_sum(anode ? spec_.anode : spec_.cathode);
+        const double limit = limit_sum(anode ? spec_.anode : spec_.cathode, t);
         if (j >= limit)
             throw Error(ErrorKind::out_of_range,
                         fmt::format("custom cell: current density {:g} A/m2 is at or above the sum of the limiting "
@@ -249,7 +287,9 @@ CellResult CustomCell::evaluate(const OperatingPoint& p) const {
     r.reversible_voltage = e_anode - e_cathode;
     r.activation_anode = anode_solution.potential - e_anode;
     r.activation_cathode = e_cathode - cathode_solution.potential;
-    r.ohmic = j * spec_.area_specific_resistance;
+    r.ohmic = j * spec_.area_specific_resistance *
+              std::exp(spec_.area_specific_resistance_activation_energy / kGasConstant *
+                       (1.0 / t - 1.0 / spec_.area_specific_resistance_reference_temperature));
     r.concentration = 0.0;  // transport limits act inside each reaction's kinetics (activation terms)
     r.voltage = r.reversible_voltage + r.activation_anode + r.activation_cathode + r.ohmic + r.concentration;
 
@@ -270,19 +310,71 @@ CellResult CustomCell::evaluate(const OperatingPoint& p) const {
     r.faraday_efficiency = shares[na];
     for (std::size_t k = 0; k < nc; ++k)
         if (spec_.cathode[k].product == "H2") { r.faraday_efficiency = shares[na + k]; break; }
+    if (has_species_) fill_fluxes_from_species(r, j, t);
+    else fill_fluxes_from_products(r, j);
+    r.heat_from_thermoneutral_voltage = std::isfinite(spec_.thermoneutral_voltage) && !has_species_ &&
+                                        !water_only_table(spec_);
+    r.gases_saturated = spec_.water_activity > 0.0;
+    r.water_activity_anode = r.water_activity_cathode = spec_.water_activity;
+    return r;
+}
+
+// Species rates from the shares: reaction k carries share_k·j/F of electrons; written as a reduction
+// (ν_i per n electrons), it runs forwards at the cathode and backwards at the anode. The stream gases
+// (H2, O2, Cl2) go to the flux arrays, net over the cell, on the side that makes them; liquid water to
+// consumed; every other species (ions, metals, melts) only to the enthalpy flow.
+void CustomCell::fill_fluxes_from_species(CellResult& r, double j, double t) const {
+    const std::size_t na = spec_.anode.size(), nc = spec_.cathode.size();
+    Fluxes made[2]{}, used{};
+    double other_enthalpy = 0.0;
+    for (std::size_t k = 0; k < na + nc; ++k) {
+        const bool anode = k < na;
+        const auto& h = anode ? spec_.anode[k] : spec_.cathode[k - na];
+        const double electrons = r.reaction_current_efficiency[k] * j / kFaraday;
+        const double scale = (anode ? -electrons : electrons) / h.electrons;
+        const auto& kinds = term_components_[k];
+        for (std::size_t i = 0; i < h.species.size(); ++i) {
+            const double rate = scale * h.species[i].coefficient;
+            const int c = kinds[i];
+            if (c < 0) {
+                other_enthalpy += rate * species_properties(h.species[i].species, t).enthalpy;
+            } else if (rate > 0.0 && c != kH2O) {
+                made[anode ? 0 : 1][c] += rate;
+            } else {
+                used[c] -= rate;  // water formed counts as negative use
+            }
+        }
+    }
+    for (int c : {kH2, kO2, kCl2}) {
+        const double total = made[0][c] + made[1][c], net = total - used[c];
+        if (net >= 0.0) {
+            if (total > 0.0) {
+                r.anode_out[c] = net * (made[0][c] / total);
+                r.cathode_out[c] = net * (made[1][c] / total);
+            }
+        } else {
+            r.consumed[c] = -net;  // a gas the reactions take up more of than they make
+        }
+    }
+    r.consumed[kH2O] = used[kH2O];
+    r.other_species_enthalpy = other_enthalpy;
+}
+
+// A table without species: the products named H2, O2 and Cl2 fill the flux arrays; an anode making O2 is
+// water oxidation in acid form (2 H2O → O2 + 4 H⁺ + 4 e⁻).
+void CustomCell::fill_fluxes_from_products(CellResult& r, double j) const {
+    const std::size_t na = spec_.anode.size(), nc = spec_.cathode.size();
     for (std::size_t k = 0; k < na + nc; ++k) {
         const bool anode = k < na;
         const auto& reaction = anode ? spec_.anode[k] : spec_.cathode[k - na];
-        const double rate = custom_product_rate(reaction, shares[k], j);
+        const double rate = custom_product_rate(reaction, r.reaction_current_efficiency[k], j);
         Fluxes& out = anode ? r.anode_out : r.cathode_out;
         if (reaction.product == "H2") out[kH2] += rate;
         else if (reaction.product == "O2") {
             out[kO2] += rate;
-            if (anode) r.consumed[kH2O] += 2.0 * rate;  // 2 H2O → O2 + 4 H⁺ + 4 e⁻
+            if (anode) r.consumed[kH2O] += 2.0 * rate;
         } else if (reaction.product == "Cl2") out[kCl2] += rate;
     }
-    r.gases_saturated = true;
-    return r;
 }
 
 void check_reaction(const HalfReaction& h, bool anode, std::size_t index) {
@@ -307,6 +399,7 @@ void check_reaction(const HalfReaction& h, bool anode, std::size_t index) {
     require_positive(h.kinetics.reference_temperature, where("kinetics reference temperature").c_str());
     require_positive(h.kinetics.alpha_forward, where("alpha forward").c_str());
     require_positive(h.kinetics.alpha_backward, where("alpha backward").c_str());
+    require_finite(h.limiting_current_activation_energy, where("limiting current activation energy").c_str());
     if (!(h.limiting_current_density > 0.0))  // +inf allowed, NaN not
         throw Error(ErrorKind::invalid_argument,
                     where("limiting current density") + fmt::format(" {} must be positive (or inf for none)",
@@ -376,6 +469,13 @@ double half_reaction_equilibrium_potential(const HalfReaction& h, bool at_anode,
     return e0 + kGasConstant * temperature / (h.electrons * kFaraday) * std::log(ratio);
 }
 
+double half_reaction_limiting_current_density(const HalfReaction& h, double temperature) {
+    if (!(h.limiting_current_activation_energy != 0.0) || std::isinf(h.limiting_current_density))
+        return h.limiting_current_density;
+    return h.limiting_current_density * std::exp(-h.limiting_current_activation_energy / kGasConstant *
+                                                 (1.0 / temperature - 1.0 / h.kinetics.reference_temperature));
+}
+
 double custom_product_rate(const HalfReaction& h, double share, double current_density) {
     return share * current_density / (h.electrons * kFaraday);
 }
@@ -393,7 +493,7 @@ std::vector<double> custom_product_rates(const CustomCellSpec& spec, const CellR
     return rates;
 }
 
-std::unique_ptr<Cell> make_custom_cell(const CustomCellSpec& spec) {
+CustomCellSpec complete_custom_spec(const CustomCellSpec& spec) {
     if (spec.anode.empty()) throw Error(ErrorKind::invalid_argument, "custom cell: the anode has no reactions");
     if (spec.cathode.empty()) throw Error(ErrorKind::invalid_argument, "custom cell: the cathode has no reactions");
     if (spec.anode.size() > kMaxReactions || spec.cathode.size() > kMaxReactions)
@@ -401,6 +501,9 @@ std::unique_ptr<Cell> make_custom_cell(const CustomCellSpec& spec) {
     for (std::size_t k = 0; k < spec.anode.size(); ++k) check_reaction(spec.anode[k], true, k);
     for (std::size_t k = 0; k < spec.cathode.size(); ++k) check_reaction(spec.cathode[k], false, k);
     require_finite(spec.area_specific_resistance, "custom cell: area-specific resistance");
+    require_finite(spec.area_specific_resistance_activation_energy, "custom cell: activation energy of the resistance");
+    require_positive(spec.area_specific_resistance_reference_temperature,
+                     "custom cell: reference temperature of the resistance");
     if (spec.area_specific_resistance < 0.0)
         throw Error(ErrorKind::invalid_argument,
                     fmt::format("custom cell: area-specific resistance {:g} ohm m2 is negative", spec.area_specific_resistance));
@@ -436,7 +539,44 @@ std::unique_ptr<Cell> make_custom_cell(const CustomCellSpec& spec) {
         throw Error(ErrorKind::invalid_argument,
                     "custom cell: the reactions have no enthalpy data (species) and the table is not water splitting: "
                     "give every reaction its species, or the thermoneutral voltage");
-    return std::make_unique<CustomCell>(spec);
+    if (!std::isnan(spec.thermoneutral_voltage) && all_species)
+        throw Error(ErrorKind::invalid_argument,
+                    "custom cell: every reaction gives its species, so the thermoneutral voltage follows from their "
+                    "enthalpies; do not give it as well");
+    // The water activity of the electrolyte: given, or 1 for an aqueous table and 0 for a dry one (a melt).
+    CustomCellSpec built = spec;
+    if (std::isnan(built.water_activity)) {
+        bool aqueous = !all_species;
+        for (const auto* side : {&spec.anode, &spec.cathode})
+            for (const auto& h : *side)
+                for (const auto& term : h.species)
+                    aqueous = aqueous || term.species.phase == Phase::aqueous ||
+                              (term.species.phase == Phase::liquid && term.species.name == "H2O");
+        built.water_activity = aqueous ? 1.0 : 0.0;
+    }
+    require_within(built.water_activity, 0.0, 1.0, "custom cell: water activity", "");
+    // A product's molar mass, when not given, from the reaction's species of that name, or for a stream gas.
+    for (auto* side : {&built.anode, &built.cathode})
+        for (auto& h : *side) {
+            if (!(h.product_molar_mass > 0.0))
+                for (const auto& term : h.species)
+                    if (term.species.name == h.product) h.product_molar_mass = term.species.molar_mass;
+            for (const Species gas : {Species::hydrogen, Species::oxygen, Species::chlorine})
+                if (!(h.product_molar_mass > 0.0) && h.product == species_name(gas))
+                    h.product_molar_mass = species_molar_mass(gas);
+        }
+    return built;
+}
+
+std::unique_ptr<Cell> make_custom_cell(const CustomCellSpec& spec) {
+    return std::make_unique<CustomCell>(complete_custom_spec(spec));
+}
+
+bool water_only_table(const CustomCellSpec& spec) {
+    for (const auto* side : {&spec.anode, &spec.cathode})
+        for (const auto& h : *side)
+            if (!h.species.empty() || (h.product != "H2" && h.product != "O2")) return false;
+    return true;
 }
 
 }  // namespace ely

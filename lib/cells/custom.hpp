@@ -43,16 +43,23 @@ struct HalfReaction {
     /// energy defaults to NaN, "not given": j0 is then known only at its reference temperature, and
     /// evaluating the cell at any other temperature is an error naming the reaction (no silent 0).
     ElectrodeKinetics kinetics{1.0, std::numeric_limits<double>::quiet_NaN(), 298.15, 0.5, 0.5};
-    /// Mass-transport limit of the reactant, A/m² (+inf: none). It makes the share of a metal
-    /// fall at low ion concentration.
+    /// Mass-transport limit of the reactant, A/m² (+inf: none), at the kinetics reference temperature. It
+    /// makes the share of a metal fall at low ion concentration.
     double limiting_current_density = std::numeric_limits<double>::infinity();
+    /// Arrhenius activation energy of the limiting current density (diffusivity, and the solubility of a
+    /// dissolved species, rise with T), J/mol; 0 holds it constant.
+    double limiting_current_activation_energy = 0.0;
     double product_molar_mass = 0.0;  // kg/mol, for product mass rates (0 if not needed)
 };
 
 struct CustomCellSpec {
     std::vector<HalfReaction> anode;    // at least one
     std::vector<HalfReaction> cathode;  // at least one
-    double area_specific_resistance = 0.0;  // Ω·m², electrolyte + separator + contacts
+    double area_specific_resistance = 0.0;  // Ω·m², electrolyte + separator + contacts, at the reference temperature
+    /// Arrhenius activation energy of the electrolyte's conductivity: ASR(T) = ASR·exp[(E/R)(1/T − 1/T_ref)],
+    /// J/mol; 0 holds the resistance constant.
+    double area_specific_resistance_activation_energy = 0.0;
+    double area_specific_resistance_reference_temperature = 298.15;  // K
     Envelope envelope{298.15, 373.15, 0.5e5, 5.0e5, 1.0e4, 298.15, 373.15};
     /// Thermoneutral voltage, V. NaN (the default): from the reactions' species, weighted by the
     /// current shares, E_tn = [Σ_cathode share·ΔH_red − Σ_anode share·ΔH_red]/F (ΔH per electron);
@@ -60,11 +67,19 @@ struct CustomCellSpec {
     /// water (HHV basis). Any other table without species needs this value (make_custom_cell refuses
     /// it otherwise): N·I·(V − E_tn) is the stack's heat.
     double thermoneutral_voltage = std::numeric_limits<double>::quiet_NaN();
+    /// Water activity of the electrolyte the product gases leave saturated over (0..1); 0: a dry
+    /// electrolyte (a melt), the gases leave without water. NaN (the default): 1 for an aqueous table (a
+    /// species in the aqueous phase or liquid water, or a table without species), 0 otherwise.
+    double water_activity = std::numeric_limits<double>::quiet_NaN();
 };
 
 /// Checks the table (names, electrons >= 1, finite positive activities, j0 > 0, α > 0, limits > 0,
 /// ASR >= 0, a sane envelope) and builds the cell; errors name the electrode, reaction and field.
 std::unique_ptr<Cell> make_custom_cell(const CustomCellSpec& spec);
+
+/// The same checks, and the table with its defaults filled in (the water activity; a product's molar
+/// mass from its species, or for H2, O2, Cl2): what the cell is built from.
+CustomCellSpec complete_custom_spec(const CustomCellSpec& spec);
 
 /// Current through one reaction k at electrode potential Φ relative to its equilibrium
 /// potential E_k, in the electrolysis direction (η = Φ − E_k at the anode, E_k − Φ at the
@@ -83,6 +98,13 @@ double half_reaction_equilibrium_potential(const HalfReaction& reaction, bool at
 /// Enthalpy of a half-reaction with species, per mol of electrons, as a reduction completed with the
 /// standard hydrogen electrode (J/mol); NaN when it has no species.
 double half_reaction_enthalpy_per_electron(const HalfReaction& reaction, double temperature);
+
+/// Whether a table is water splitting without species (every product H2 or O2): its heat is then known.
+bool water_only_table(const CustomCellSpec& spec);
+
+/// Limiting current density of a half-reaction at T, A/m²: Arrhenius from its reference value about the
+/// kinetics reference temperature.
+double half_reaction_limiting_current_density(const HalfReaction& reaction, double temperature);
 
 /// Product molar rate of reaction k, mol/(m² s): share_k·j/(n_k F).
 double custom_product_rate(const HalfReaction& reaction, double share, double current_density);

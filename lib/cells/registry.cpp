@@ -41,11 +41,26 @@ std::vector<SummaryGroup> water_summary() {
     return {operating_point(),
             voltage_breakdown(),
             stacks_and_plant(),
-            {"Products and feeds", {"product.hydrogen", "product.oxygen", "feed.water", "perf.water_per_hydrogen"}},
+            {"Products and feeds",
+             {"product.hydrogen", "product.oxygen", "feed.water", "perf.water_per_hydrogen",
+              "stream.condensate.mass_flow", "feed.hydrogen"}},
             {"Efficiency and heat",
              {"cell.faraday_efficiency", "perf.specific_energy", "perf.specific_energy_plant", "perf.efficiency_hhv",
-              "heat.duty"}},
+              "heat.duty", "heat.gas_coolers"}},
             {"Gas purity", {"gas.h2_in_o2", "gas.o2_in_h2"}}};
+}
+
+// A steam-fed cell: its plant raises the steam and heats the sweep air; no crossover purity to show.
+std::vector<SummaryGroup> steam_summary() {
+    return {operating_point(),
+            voltage_breakdown(),
+            stacks_and_plant(),
+            {"Products and feeds",
+             {"product.hydrogen", "product.oxygen", "feed.water", "perf.water_per_hydrogen",
+              "stream.condensate.mass_flow", "feed.sweep_air"}},
+            {"Efficiency and heat",
+             {"cell.faraday_efficiency", "perf.specific_energy", "perf.specific_energy_plant", "perf.efficiency_hhv",
+              "heat.duty", "heat.feed_heating", "heat.gas_coolers"}}};
 }
 
 std::vector<SummaryGroup> brine_summary() {
@@ -145,20 +160,37 @@ DynamicDefaults custom_dynamics() {
 const std::vector<TechnologyInfo>& technologies() {
     static const std::vector<TechnologyInfo> all = {
         {"pem", "proton-exchange-membrane water electrolysis", kMakesHydrogen | kMakesOxygen, pem_parameters,
-         make_pem_cell, {}, water_summary(), "examples/minimal/pem.json", pem_dynamics()},
+         make_pem_cell, {}, water_summary(), "examples/minimal/pem.json", 2.0e4,
+         "2 A/cm2: inside the 1-3 A/cm2 nominal current density of PEM electrolysers (IRENA, Green "
+         "Hydrogen Cost Reduction, 2020, table of key performance indicators)",
+         pem_dynamics()},
         {"alkaline", "alkaline (KOH) water electrolysis", kMakesHydrogen | kMakesOxygen, alkaline_parameters,
          make_alkaline_cell,
          {{"shunt_cells", StackQuantity::cells}, {"shunt_cell_area", StackQuantity::active_area}}, water_summary(),
-         "examples/minimal/alkaline.json", alkaline_dynamics()},
-        {"solid_oxide", "solid oxide steam electrolysis", kMakesHydrogen | kMakesOxygen, solid_oxide_parameters,
-         make_solid_oxide_cell, {}, water_summary(), "examples/minimal/solid_oxide.json", solid_oxide_dynamics()},
+         "examples/minimal/alkaline.json", 4.0e3,
+         "0.4 A/cm2: inside the 0.2-0.8 A/cm2 nominal current density of alkaline electrolysers (IRENA, Green "
+         "Hydrogen Cost Reduction, 2020)",
+         alkaline_dynamics()},
+        {"solid_oxide", "solid oxide steam electrolysis", kMakesHydrogen | kMakesOxygen | kSteamFeed, solid_oxide_parameters,
+         make_solid_oxide_cell, {}, steam_summary(), "examples/minimal/solid_oxide.json", 1.0e4,
+         "1 A/cm2: the upper end of the 0.3-1 A/cm2 nominal current density of solid oxide electrolysers (IRENA, "
+         "Green Hydrogen Cost Reduction, 2020; from memory)",
+         solid_oxide_dynamics()},
         {"brine", "chlor-alkali membrane cell (brine electrolysis)", kMakesHydrogen | kBrineProducts, brine_parameters,
-         make_brine_cell, {}, brine_summary(), "examples/minimal/brine.json", brine_dynamics()},
+         make_brine_cell, {}, brine_summary(), "examples/minimal/brine.json", 5.0e3,
+         "5 kA/m2: the middle of the 4-6 kA/m2 of membrane chlor-alkali cells (O'Brien, Bommaraju & Hine, "
+         "Handbook of Chlor-Alkali Technology, 2005; from memory)",
+         brine_dynamics()},
         {"custom", "custom cell from a table of competing half-reactions",
-         kMakesHydrogen | kReactionTable | kHeatFromThermoneutralVoltage, nullptr, nullptr, {}, custom_summary(),
-         "examples/minimal/custom.json", custom_dynamics()},
+         kMakesHydrogen | kReactionTable, nullptr, nullptr, {}, custom_summary(),
+         "examples/minimal/custom.json", 0.0,
+         "none: the cell's own maximum current density (cell.current_density_max) unless the plant gives one",
+         custom_dynamics()},
         {"aem", "anion-exchange-membrane water electrolysis (dilute KOH or pure-water feed)",
          kMakesHydrogen | kMakesOxygen, aem_parameters, make_aem_cell, {}, water_summary(), "examples/minimal/aem.json",
+         1.0e4,
+         "1 A/cm2: inside the 0.2-2 A/cm2 nominal current density of AEM electrolysers (IRENA, Green Hydrogen Cost "
+         "Reduction, 2020)",
          aem_dynamics()},
     };
     return all;

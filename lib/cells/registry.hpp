@@ -24,7 +24,7 @@ enum TechnologyFeature : uint32_t {
     kMakesOxygen = 1u << 1,     // an oxygen product (the anode gas of water cells)
     kBrineProducts = 1u << 2,   // chlorine, caustic soda and a salt feed
     kReactionTable = 1u << 3,   // built from the config's table of half-reactions instead of a parameter table
-    kHeatFromThermoneutralVoltage = 1u << 4,  // products without enthalpy data: duty = N·I·(V − E_tn)
+    kSteamFeed = 1u << 5,       // fed steam: steam raising and an oxygen-electrode sweep in the plant balances
 };
 
 /// A cell parameter whose default is taken from the plant description's stack section, so
@@ -72,6 +72,12 @@ struct TechnologyInfo {
     std::vector<StackDefault> stack_defaults;
     std::vector<SummaryGroup> summary;
     const char* example;  // a minimal plant description, path relative to the source tree
+    /// The rated (nominal) current density a plant of this technology runs at, A/m², with its
+    /// source: the default of plant.limits.rated_current_density, against which load, minimum load
+    /// and the current-density alarm are counted. Distinct from the cell model's validity limit
+    /// (its envelope). 0: no single value fits the technology (the custom cell: its envelope maximum).
+    double rated_current_density = 0.0;
+    const char* rated_current_density_source = "";
     DynamicDefaults dynamics;
 
     bool has(uint32_t wanted) const { return (features & wanted) == wanted; }

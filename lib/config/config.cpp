@@ -233,7 +233,68 @@ void build_cell(const json::value* cell, PlantDesign& d) {
     d.cell_parameters = std::make_shared<const ParameterValues>(std::move(values));
 }
 
-std::vector<HalfReaction> parse_reactions(const json::object& reactions, const char* electrode) {
+Phase phase_at(const std::string& name, const std::string& path) {
+    Phase phase{};
+    if (!phase_from_name(name, &phase))
+        fail(path, fmt::format("'{}' is not a phase; known: gas, liquid, aqueous, solid, melt", excerpt(name)));
+    return phase;
+}
+
+/// The species rows a config adds (reactions.species), each checked by user_species_record.
+std::vector<SpeciesRecord> parse_species_rows(const json::object& reactions) {
+    std::vector<SpeciesRecord> rows;
+    const json::value* list = reactions.if_contains("species");
+    if (list == nullptr) return rows;
+    const std::string path = "$.reactions.species";
+    const json::array& items = expect_array(*list, path);
+    for (std::size_t i = 0; i < items.size(); ++i) {
+        const std::string p = element(path, i);
+        SpeciesRowInput in;
+        parse_fields(items[i], species_row_fields(), p, in, nullptr);
+        const Phase phase = phase_at(in.phase, child(p, "phase"));
+        for (const auto& bundled : species_table())
+            if (bundled.name == in.name && bundled.phase == phase)
+                fail(child(p, "name"), fmt::format("species '{}' ({}) is in the bundled table already; give another name",
+                                                   excerpt(in.name), in.phase));
+        for (const auto& other : rows)
+            if (other.name == in.name && other.phase == phase)
+                fail(child(p, "name"), fmt::format("species '{}' ({}) appears twice", excerpt(in.name), in.phase));
+        try {
+            rows.push_back(user_species_record(in.name, phase, in.molar_mass, in.charge, in.formation_enthalpy,
+                                               in.entropy, in.cp_a, in.cp_b, in.cp_c, in.temperature_min,
+                                               in.temperature_max, in.source));
+        } catch (const Error& e) {
+            fail(p, e.what());
+        }
+    }
+    return rows;
+}
+
+/// A reaction's species: {species, phase, coefficient} from the config's rows, else the bundled table.
+std::vector<SpeciesTerm> parse_species_terms(const json::value& list, const std::string& path,
+                                             const std::vector<SpeciesRecord>& rows) {
+    const json::array& items = expect_array(list, path);
+    if (items.empty()) fail(path, "a reaction's species list is empty; leave it out to give a standard potential");
+    std::vector<SpeciesTerm> terms;
+    for (std::size_t i = 0; i < items.size(); ++i) {
+        const std::string p = element(path, i);
+        SpeciesTermInput in;
+        parse_fields(items[i], species_term_fields(), p, in, nullptr);
+        const Phase phase = phase_at(in.phase, child(p, "phase"));
+        if (in.coefficient == 0.0) fail(child(p, "coefficient"), "a coefficient of 0 leaves the species out");
+        const auto own = std::find_if(rows.begin(), rows.end(),
+                                      [&](const SpeciesRecord& r) { return r.name == in.species && r.phase == phase; });
+        try {
+            terms.push_back({own != rows.end() ? *own : species_record(in.species, phase), in.coefficient});
+        } catch (const Error& e) {
+            fail(child(p, "species"), std::string(e.what()) + " (or add it under $.reactions.species)");
+        }
+    }
+    return terms;
+}
+
+std::vector<HalfReaction> parse_reactions(const json::object& reactions, const char* electrode,
+                                          const std::vector<SpeciesRecord>& rows) {
     const std::string path = child("$.reactions", electrode);
     const json::value* list = reactions.if_contains(electrode);
     if (list == nullptr) fail("$.reactions", fmt::format("missing required key '{}'", electrode));
@@ -245,7 +306,18 @@ std::vector<HalfReaction> parse_reactions(const json::object& reactions, const c
     out.reserve(items.size());
     for (std::size_t i = 0; i < items.size(); ++i) {
         HalfReaction r;
-        parse_fields(items[i], reaction_fields(), element(path, i), r, nullptr);
+        const std::string p = element(path, i);
+        parse_fields(items[i], reaction_fields(), p, r, nullptr);
+        const json::object& obj = items[i].as_object();
+        const bool potential_given = obj.contains("standard_potential");
+        if (const json::value* species = obj.if_contains("species")) {
+            if (potential_given || obj.contains("standard_potential_temperature_coefficient"))
+                fail(child(p, "standard_potential"),
+                     "give either the species (E° follows from their data) or the standard potential, not both");
+            r.species = parse_species_terms(*species, child(p, "species"), rows);
+        } else if (!potential_given) {
+            fail(p, "missing key 'standard_potential': a reaction without species needs its standard potential");
+        }
         if (r.name.empty()) fail(child(element(path, i), "name"), "the name is empty");
         if (r.product.empty()) fail(child(element(path, i), "product"), "the product is empty");
         for (const auto& other : out)
@@ -265,10 +337,12 @@ void build_reaction_cell(const json::value* cell, const json::value* reactions, 
     const json::object& table = expect_object(*reactions, "$.reactions");
     for (const auto& kv : table) {
         const std::string_view key(kv.key().data(), kv.key().size());
-        if (key != "anode" && key != "cathode") unknown_key("$.reactions", key, {"anode", "cathode"});
+        if (key != "anode" && key != "cathode" && key != "species")
+            unknown_key("$.reactions", key, {"anode", "cathode", "species"});
     }
-    spec.anode = parse_reactions(table, "anode");
-    spec.cathode = parse_reactions(table, "cathode");
+    const std::vector<SpeciesRecord> rows = parse_species_rows(table);
+    spec.anode = parse_reactions(table, "anode", rows);
+    spec.cathode = parse_reactions(table, "cathode", rows);
     if (cell != nullptr) parse_fields(*cell, custom_cell_fields(), "$.cell", spec, nullptr);
     // The fitted range follows the hard range unless given.
     Envelope& e = spec.envelope;
@@ -288,8 +362,9 @@ void build_reaction_cell(const json::value* cell, const json::value* reactions, 
         fail("$.cell", fmt::format("pressure_min {:g} Pa must be below pressure_max {:g} Pa", e.pressure_min,
                                    e.pressure_max));
     try {
-        d.cell = make_custom_cell(spec);
-        d.custom = std::make_shared<const CustomCellSpec>(std::move(spec));
+        auto complete = std::make_shared<const CustomCellSpec>(complete_custom_spec(spec));
+        d.cell = make_custom_cell(*complete);
+        d.custom = std::move(complete);
     } catch (const Error& e) {
         fail("$.reactions", e.what());
     }
@@ -346,6 +421,10 @@ void settle_operating_point(const json::value& root, PlantDesign& d) {
         const double j_max = c[par_current_density_max] > 0 ? std::min(c[par_current_density_max], e.current_density_max)
                                                             : e.current_density_max;
         c[in_current_density] = std::min(c[in_current_density], 0.5 * j_max);
+        // Not above the plant's rated current density (given, else the technology's).
+        const double rated = c[par_rated_current_density] > 0 ? c[par_rated_current_density]
+                                                              : d.technology->rated_current_density;
+        if (rated > 0) c[in_current_density] = std::min(c[in_current_density], rated);
     }
     const TechnologyInfo& t = *d.technology;
     const auto check = [&](Var v, double lo, double hi) {

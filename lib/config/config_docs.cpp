@@ -73,6 +73,7 @@ void document_fields(std::string& out, const std::vector<Field<T>>& fields, cons
             case Type::section:
             case Type::cell:
             case Type::reactions: type = "object"; break;
+            case Type::list: type = "array"; break;
         }
         if (f.required) type += ", **required**";
         out += fmt::format("| `{}` | {} | {} | {} | {} | {} |\n", f.key, type, unit, markdown_cell(default_text(f)),
@@ -124,11 +125,16 @@ std::string config_schema_markdown() {
     for (const auto& t : technologies())
         if (t.parameters) document_parameters(out, t);
     out += "## The custom technology\n\n"
-           "`reactions` holds `anode` and `cathode`, each a non-empty array of at most 8 reaction objects; the "
-           "reactions of one electrode compete for its current at a common electrode potential. Currents count "
-           "positive in the electrolysis direction of the electrode (oxidation at the anode, reduction at the "
-           "cathode). `cell` holds the keys of `cell` (custom) below instead of a technology's parameter list.\n\n";
+           "`reactions` holds `anode` and `cathode`, each a non-empty array of at most 8 reaction objects, and "
+           "optionally `species`, rows the config adds to the bundled species table; the reactions of one electrode "
+           "compete for its current at a common electrode potential. Currents count positive in the electrolysis "
+           "direction of the electrode (oxidation at the anode, reduction at the cathode). A reaction gives either "
+           "its `species` (E°(T) and its enthalpy follow from their data: docs/cells-brine-custom.md, *Species "
+           "table*) or its `standard_potential`. `cell` holds the keys of `cell` (custom) below instead of a "
+           "technology's parameter list.\n\n";
     document_fields(out, reaction_fields(), "reactions.anode[i], reactions.cathode[i]");
+    document_fields(out, species_term_fields(), "reactions.*[i].species[k]");
+    document_fields(out, species_row_fields(), "reactions.species[k]");
     document_fields(out, custom_cell_fields(), "cell (custom)");
     out += "## Units\n\n"
            "A quantity string is a number, optional spaces and a unit expression: `\"80 degC\"`, `\"30 bar\"`, "

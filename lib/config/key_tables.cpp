@@ -91,6 +91,7 @@ const std::vector<PlantField>& auxiliaries_fields() {
 const std::vector<PlantField>& limits_fields() {
     static const std::vector<PlantField> fields = {
         variable(par_current_density_max),
+        variable(par_rated_current_density),
         variable(par_min_load_fraction),
         variable(par_temperature_max),
     };
@@ -122,6 +123,7 @@ const std::vector<PlantField>& thermal_fields() {
         variable(in_feed_temperature),
         variable(par_heat_loss_coefficient).defaults("the technology's value per m2 of cell area x the cells' area per stack"),
         variable(in_ambient_temperature),
+        variable(par_gas_cooler_temperature),
         variable(par_exchanger_ua)
             .defaults("sized with operating.coolant_flow: the open valve takes 110 % of the heat of rated load at the "
                       "temperature setpoint"),
@@ -192,7 +194,8 @@ const std::vector<PlantField>& operating_fields() {
         PlantField{"spec", Type::spec, "which drive input the solve reads; its value must be given"}.mandatory(),
         variable(in_current_density)
             .defaults("1e4 A/m2, or half the maximum current density (plant.limits.current_density_max, else "
-                      "the cell model's) if that is lower"),
+                      "the cell model's) or the rated current density (plant.limits.rated_current_density, else the "
+                      "technology's) if either is lower"),
         variable(in_current).defaults(kWhenRead),
         variable(in_power).defaults(kWhenRead),
         variable(in_hydrogen_rate).defaults(kWhenRead),
@@ -240,13 +243,19 @@ const std::vector<Field<HalfReaction>>& reaction_fields() {
                            "product formula; \"H2\", \"O2\" and \"Cl2\" also fill the gas streams")
             .mandatory(),
         count<HalfReaction>("electrons", 1, 12, ELY_MEMBER(electrons), "electrons per formula unit of product"),
+        Field<HalfReaction>{"species", Type::list,
+                            "the half-reaction's species written as a reduction, ox + n e- -> red: an array of "
+                            "{species, phase, coefficient} (see reactions.*[i].species[k]); E°(T) and the reaction "
+                            "enthalpy follow from their data (the bundled table or reactions.species)"}
+            .defaults("none: then standard_potential is required and the heat needs cell.thermoneutral_voltage "
+                      "(unless the table is water splitting)"),
         quantity<HalfReaction>("standard_potential", "V", -5, 5, ELY_MEMBER(standard_potential),
                                "standard reduction potential vs SHE at 298.15 K, as tabulated (e.g. the CRC "
-                               "electrochemical series)")
-            .mandatory(),
+                               "electrochemical series); only for a reaction without species")
+            .defaults("required when the reaction gives no species"),
         quantity<HalfReaction>("standard_potential_temperature_coefficient", "V/K", -0.01, 0.01,
                                ELY_MEMBER(standard_potential_temperature_coefficient),
-                               "dE°/dT; 0 holds E° at its 25 °C value"),
+                               "dE°/dT; 0 holds E° at its 25 °C value (only for a reaction without species)"),
         quantity<HalfReaction>("reactant_activity", "1", 0, 1e6, ELY_MEMBER(reactant_activity),
                                "activity product of the species consumed in the electrolysis direction (the "
                                "oxidized one at the cathode, the reduced one at the anode)")
@@ -274,8 +283,14 @@ const std::vector<Field<HalfReaction>>& reaction_fields() {
                                "mass-transport limit of the reactant")
             .above(0)
             .defaults("none (no mass-transport limit)"),
+        quantity<HalfReaction>("limiting_current_activation_energy", "J/mol", 0, 1e6,
+                               ELY_MEMBER(limiting_current_activation_energy),
+                               "Arrhenius activation energy of the limiting current density about the kinetics "
+                               "reference temperature (diffusion and solubility rise with temperature)"),
         quantity<HalfReaction>("product_molar_mass", "kg/mol", 0, 10, ELY_MEMBER(product_molar_mass),
-                               "molar mass of the product, for product mass rates (0: not needed)"),
+                               "molar mass of the product, for product mass rates")
+            .defaults("that of the reaction's species named like the product, or of H2, O2, Cl2 for those "
+                      "products; else 0 (the mass rate is then not a number)"),
     };
     return fields;
 }
@@ -288,7 +303,15 @@ using CustomField = Field<CustomCellSpec>;
 const std::vector<Field<CustomCellSpec>>& custom_cell_fields() {
     static const std::vector<CustomField> fields = {
         quantity<CustomCellSpec>("area_specific_resistance", "ohm m2", 0, 1, ELY_MEMBER(area_specific_resistance),
-                                 "electrolyte, separator and contact resistance"),
+                                 "electrolyte, separator and contact resistance at the reference temperature"),
+        quantity<CustomCellSpec>("resistance_activation_energy", "J/mol", 0, 1e6,
+                                 ELY_MEMBER(area_specific_resistance_activation_energy),
+                                 "Arrhenius activation energy of the electrolyte's conductivity: ASR(T) = ASR exp[(E/R)"
+                                 "(1/T - 1/T_ref)]; 0 holds the resistance constant"),
+        quantity<CustomCellSpec>("resistance_reference_temperature", "K", 0, 5000,
+                                 ELY_MEMBER(area_specific_resistance_reference_temperature),
+                                 "temperature of area_specific_resistance")
+            .above(0),
         quantity<CustomCellSpec>("temperature_min", "K", 0, 2000, ELY_MEMBER(envelope.temperature_min),
                                  "lowest temperature the model accepts")
             .above(0),
@@ -314,13 +337,72 @@ const std::vector<Field<CustomCellSpec>>& custom_cell_fields() {
                                  "highest current density the model accepts")
             .above(0),
         quantity<CustomCellSpec>("thermoneutral_voltage", "V", 0, 10, ELY_MEMBER(thermoneutral_voltage),
-                                 "thermoneutral voltage to report")
-            .defaults("the liquid-water (HHV) value when the main products are H2 and O2, else unknown (0 "
-                      "reported)"),
+                                 "thermoneutral voltage of a table whose reactions give no species: the heat is then "
+                                 "N·I·(V − E_tn); refused when every reaction gives its species")
+            .defaults("from the species' enthalpies, weighted by the current shares; for a water-splitting table "
+                      "without species the liquid-water (HHV) value; any other table without species must give it"),
+        quantity<CustomCellSpec>("water_activity", "1", 0, 1, ELY_MEMBER(water_activity),
+                                 "water activity of the electrolyte the product gases leave saturated over; 0 = a dry "
+                                 "electrolyte (a melt): the gases leave without water")
+            .defaults("1 for an aqueous table (an aqueous species or liquid water, or a table without species), 0 "
+                      "otherwise"),
     };
     return fields;
 }
 
+#undef ELY_MEMBER
+
+#define ELY_MEMBER(expr) [](SpeciesTermInput& t) -> auto& { return t.expr; }
+const std::vector<Field<SpeciesTermInput>>& species_term_fields() {
+    static const std::vector<Field<SpeciesTermInput>> fields = {
+        text<SpeciesTermInput>("species", ELY_MEMBER(species), "the species' formula as the table writes it, e.g. "
+                                                               "\"Zn+2\", \"H2O\", \"MgCl2\"")
+            .mandatory(),
+        text<SpeciesTermInput>("phase", ELY_MEMBER(phase), "gas, liquid, aqueous, solid or melt").mandatory(),
+        quantity<SpeciesTermInput>("coefficient", "1", -100, 100, ELY_MEMBER(coefficient),
+                                   "stoichiometric coefficient in the reduction ox + n e- -> red: negative for the "
+                                   "oxidized side, positive for the reduced side; the charges must sum to -n")
+            .mandatory(),
+    };
+    return fields;
+}
+#undef ELY_MEMBER
+
+#define ELY_MEMBER(expr) [](SpeciesRowInput& r) -> auto& { return r.expr; }
+const std::vector<Field<SpeciesRowInput>>& species_row_fields() {
+    static const std::vector<Field<SpeciesRowInput>> fields = {
+        text<SpeciesRowInput>("name", ELY_MEMBER(name), "the species' formula, as reactions name it").mandatory(),
+        text<SpeciesRowInput>("phase", ELY_MEMBER(phase), "aqueous, solid or melt (gases and liquid water come from "
+                                                          "the bundled fits)")
+            .mandatory(),
+        quantity<SpeciesRowInput>("molar_mass", "kg/mol", 0, 10, ELY_MEMBER(molar_mass), "molar mass")
+            .above(0)
+            .mandatory(),
+        count<SpeciesRowInput>("charge", -10, 10, ELY_MEMBER(charge), "charge of an ion, in elementary charges"),
+        quantity<SpeciesRowInput>("formation_enthalpy", "J/mol", -1e7, 1e7, ELY_MEMBER(formation_enthalpy),
+                                  "enthalpy of formation at 298.15 K of the phase stable there (conventional scale "
+                                  "H+(aq) = 0 for ions)")
+            .mandatory(),
+        quantity<SpeciesRowInput>("entropy", "J/(mol K)", -1e4, 1e4, ELY_MEMBER(entropy),
+                                  "entropy at 298.15 K and 1 bar (absolute; conventional for ions)")
+            .mandatory(),
+        quantity<SpeciesRowInput>("cp_a", "J/(mol K)", -1e5, 1e5, ELY_MEMBER(cp_a),
+                                  "a of the heat capacity cp = a + b T + c/T^2 (constant cp: a alone)")
+            .mandatory(),
+        quantity<SpeciesRowInput>("cp_b", "J/(mol K2)", -1e3, 1e3, ELY_MEMBER(cp_b), "b of the heat capacity"),
+        quantity<SpeciesRowInput>("cp_c", "J K/mol", -1e9, 1e9, ELY_MEMBER(cp_c), "c of the heat capacity"),
+        quantity<SpeciesRowInput>("temperature_min", "K", 1, 5000, ELY_MEMBER(temperature_min),
+                                  "lowest temperature of the row's data")
+            .mandatory(),
+        quantity<SpeciesRowInput>("temperature_max", "K", 1, 5000, ELY_MEMBER(temperature_max),
+                                  "highest temperature of the row's data")
+            .mandatory(),
+        text<SpeciesRowInput>("source", ELY_MEMBER(source),
+                              "where the numbers come from (a table, a paper; 'from memory' when that is what it is)")
+            .mandatory(),
+    };
+    return fields;
+}
 #undef ELY_MEMBER
 
 }  // namespace ely::config_keys

@@ -15,7 +15,7 @@ namespace ely::config_keys {
 
 constexpr double kInf = std::numeric_limits<double>::infinity();
 
-enum class Type { quantity, count, flag, text, technology, spec, section, cell, reactions };
+enum class Type { quantity, count, flag, text, technology, spec, section, cell, reactions, list };
 
 template <class T>
 struct Field {
@@ -58,5 +58,23 @@ const std::vector<Field<PlantDesign>>& root_fields();
 const std::vector<Field<HalfReaction>>& reaction_fields();
 /// The "cell" object of the custom technology.
 const std::vector<Field<CustomCellSpec>>& custom_cell_fields();
+
+/// One species of a reaction: {species, phase, coefficient}, looked up in the config's own rows
+/// (reactions.species) and the bundled table.
+struct SpeciesTermInput {
+    std::string species, phase;
+    double coefficient = 0.0;
+};
+const std::vector<Field<SpeciesTermInput>>& species_term_fields();
+
+/// A species row a config adds (reactions.species): one heat-capacity segment cp = a + b·T + c/T².
+struct SpeciesRowInput {
+    std::string name, phase, source;
+    int charge = 0;
+    double molar_mass = 0.0, formation_enthalpy = 0.0, entropy = 0.0;
+    double cp_a = 0.0, cp_b = 0.0, cp_c = 0.0;
+    double temperature_min = 298.15, temperature_max = 298.15;
+};
+const std::vector<Field<SpeciesRowInput>>& species_row_fields();
 
 }  // namespace ely::config_keys

@@ -4,6 +4,7 @@
 #include <cmath>
 #include <cstdlib>
 #include <fmt/format.h>
+#include <optional>
 
 #include "base/error.hpp"
 #include "base/excerpt.hpp"
@@ -384,24 +385,26 @@ std::string_view trim(std::string_view s) {
     return s;
 }
 
+// The one conversion of a value between two parsed units (every entry point comes here):
+// value_to = (value · f_from + offset_from − offset_to) / f_to with f = numerator/denominator · 10^e;
+// the rational parts are combined first so that exact conversions stay exact, and equal offsets
+// (degC to degC) cancel exactly.
 double apply(double value, const Unit& from, std::string_view from_text, const Unit& to, std::string_view to_text) {
     if (from.dimension != to.dimension) {
         // "C" is the coulomb; written for a temperature it is nearly always meant as degrees Celsius.
         const bool celsius_meant = from_text == "C" && to.dimension == kTemperature;
         throw Error(ErrorKind::config,
-                    fmt::format("expected a quantity in {}, got '{}' ({} instead of {}){}", to_text, shown(from_text),
+                    fmt::format("expected a quantity in {}, got '{}' ({} instead of {}){}", shown(to_text), shown(from_text),
                                 dimension_text(from.dimension), dimension_text(to.dimension),
                                 celsius_meant ? "; did you mean degC?" : ""));
     }
-    // value_to = (value · f_from + offset) / f_to with f = numerator/denominator · 10^e; the
-    // rational parts are combined first so that exact conversions stay exact.
     double v = value;
     const double numerator = from.numerator * to.denominator;
     const double denominator = from.denominator * to.numerator;
     if (numerator != 1) v *= numerator;
     if (denominator != 1) v /= denominator;
     v = scale_by_ten(v, from.exponent10 - to.exponent10);
-    if (from.offset != 0) v += from.offset / to.factor();
+    if (from.offset != to.offset) v += (from.offset - to.offset) / to.factor();
     return v;
 }
 
@@ -459,10 +462,12 @@ std::string dimension_text(const Dimension& dimension) {
 }
 
 double convert_unit(double value, std::string_view from, std::string_view to) {
-    const Unit f = parse_unit(from);
-    const Unit t = parse_unit(to);
-    if (t.offset != 0) throw Error(ErrorKind::internal, fmt::format("target unit '{}' has an offset", to));
-    return apply(value, f, trim(from), t, trim(to));
+    if (!std::isfinite(value)) throw Error(ErrorKind::config, fmt::format("value {} is not a finite number", value));
+    const auto from_text = trim(from), to_text = trim(to);
+    const double v = apply(value, parse_unit(from_text), from_text, parse_unit(to_text), to_text);
+    if (!std::isfinite(v))
+        throw Error(ErrorKind::config, fmt::format("{:g} {} is out of range in {}", value, shown(from_text), shown(to_text)));
+    return v;
 }
 
 namespace {
@@ -505,26 +510,27 @@ double parse_plain_number(std::string_view text) {
 }
 
 double parse_quantity(std::string_view text, std::string_view expected_unit) {
-    const auto t = trim(text);
-    const LeadingNumber n = leading_number(t);
-    const double number = n.value;
-    const auto unit_text = n.rest;
-    if (unit_text.empty()) return number;  // a bare number is already in the expected unit
-    Unit to;
+    const auto t = trim(text), to_text = trim(expected_unit);
+    // The expected unit first: one with an offset (degC) is refused whatever the text, since a
+    // caller wants the value in a unit that scales (an SI unit of the variable table).
+    std::optional<Unit> to;
     try {
-        to = parse_unit(expected_unit);
+        to = parse_unit(to_text);
     } catch (const Error&) {
-        // A unit outside the grammar, e.g. "(A/m2)^-n" of an empirical fit: no conversion.
+        // A unit outside the grammar, e.g. "(A/m2)^-n" of an empirical fit: bare numbers only.
+    }
+    if (to && to->offset != 0)
+        throw Error(ErrorKind::config,
+                    fmt::format("unit '{}' has an offset; give a unit without one (K, not degC)", shown(to_text)));
+    const LeadingNumber n = leading_number(t);
+    if (n.rest.empty()) return n.value;  // a bare number is already in the expected unit
+    if (!to)
         throw Error(ErrorKind::config, fmt::format("values in '{}' take no unit conversion; give a plain number "
                                                    "in {}, got '{}'",
-                                                   trim(expected_unit), trim(expected_unit), shown(t)));
-    }
-    if (to.offset != 0)
-        throw Error(ErrorKind::internal, fmt::format("expected unit '{}' has an offset", expected_unit));
-    const Unit from = parse_unit(unit_text);
-    const double v = apply(number, from, unit_text, to, trim(expected_unit));
+                                                   shown(to_text), shown(to_text), shown(t)));
+    const double v = apply(n.value, parse_unit(n.rest), n.rest, *to, to_text);
     if (!std::isfinite(v))
-        throw Error(ErrorKind::config, fmt::format("'{}' is out of range in {}", shown(t), trim(expected_unit)));
+        throw Error(ErrorKind::config, fmt::format("'{}' is out of range in {}", shown(t), shown(to_text)));
     return v;
 }
 

@@ -52,15 +52,24 @@ Unit parse_unit(std::string_view text);
 /// The SI base units of a dimension in the order of Dimension, e.g. "kg m-1 s-2"; "1" if none.
 std::string dimension_text(const Dimension& dimension);
 
-/// Converts `value` given in unit `from` into unit `to` (both unit expressions); the
-/// dimensions must agree ("expected a quantity in K, got 'bar'"). `to` has no offset.
+// The two ways in, one conversion behind them (units.cpp, `apply`):
+//  - parse_quantity: text that carries its own unit ("2 A/cm2": a plant description, an option
+//    value on a command line) into the unit a variable is kept in;
+//  - convert_unit: a number whose unit is known apart from it (a data file's column header, a
+//    display unit) from one unit into another, offsets allowed on both sides.
+// The C interface offers both as ely_parse_quantity and ely_convert_unit.
+
+/// Converts `value` given in unit `from` into unit `to` (both unit expressions; either may be
+/// degC, e.g. 353.15 K to degC is 80). The dimensions must agree ("expected a quantity in K,
+/// got 'bar'"). Throws ErrorKind::config for a unit that does not parse, other dimensions, a
+/// non-finite value or result.
 double convert_unit(double value, std::string_view from, std::string_view to);
 
 /// Parses "number unit" ("1.5 MW", "25 %", "80degC", or a bare "42" taken as already in
-/// `expected_unit`) and returns the value in `expected_unit`. An expected unit outside the
-/// grammar (an empirical "(A/m2)^-n") accepts bare numbers only. Throws ErrorKind::config with
-/// a message without a JSON path; the config layer puts the path in front. A non-finite
-/// number or result is an error.
+/// `expected_unit`) and returns the value in `expected_unit`, which must have no offset (not
+/// degC). An expected unit outside the grammar (an empirical "(A/m2)^-n") accepts bare numbers
+/// only. Throws ErrorKind::config with a message without a JSON path; the config layer puts the
+/// path in front. A non-finite number or result is an error.
 double parse_quantity(std::string_view text, std::string_view expected_unit);
 
 /// Parses a plain number with optional surrounding white space ("100", " 1e2 "), no unit.

@@ -113,6 +113,23 @@ std::vector<SpeciesRecord> build_table() {
     t.push_back(ion_row("Zn+2", aw::Zn, 2, -153.89, -112.1, 46.0));
     t.push_back(ion_row("SO4-2", aw::S + 4 * aw::O, -2, -909.27, 20.1, -293.0));
     t.push_back(ion_row("HSO4-", aw::H + aw::S + 4 * aw::O, -1, -887.34, 131.8, -84.0));
+    {
+        // The chloride ion of a chloride melt: the reference ion of the melt's ionic scale, h = s = cp = 0 by
+        // convention at every temperature (as H⁺(aq) in water). Half-reactions of a melt written with it (Cl2 +
+        // 2 e⁻ → 2 Cl⁻, NaCl + e⁻ → Na + Cl⁻) have meaningful differences only: it cancels between the electrodes.
+        SpeciesRecord r;
+        r.name = "Cl-";
+        r.phase = Phase::melt;
+        r.molar_mass = aw::Cl;
+        r.charge = -1;
+        r.segments[0] = {kStandardTemperature, 0.0, 0.0, 0.0, 0.0};
+        r.segment_count = 1;
+        r.temperature_min = 298.15;
+        r.temperature_max = 2000.0;
+        r.source = "convention: the reference ion of a chloride melt (zero at every temperature; cancels between the "
+                   "electrodes)";
+        t.push_back(r);
+    }
     // Metals and salts (NIST-JANAF, from memory): solid Cp as a + b T + c/T².
     const auto zinc = solid_row("Zn", aw::Zn, 0.0, 41.63, {kStandardTemperature, 22.38, 10.04e-3, 0.0, 0.0}, 692.68);
     t.push_back(zinc);
@@ -153,6 +170,15 @@ const char* phase_name(Phase phase) {
         case Phase::melt: return "melt";
     }
     return "?";
+}
+
+bool phase_from_name(std::string_view name, Phase* phase) {
+    for (Phase candidate : {Phase::gas, Phase::liquid, Phase::aqueous, Phase::solid, Phase::melt})
+        if (name == phase_name(candidate)) {
+            *phase = candidate;
+            return true;
+        }
+    return false;
 }
 
 const std::vector<SpeciesRecord>& species_table() {
@@ -251,11 +277,10 @@ ReactionProperties half_reaction_per_electron(const std::vector<SpeciesTerm>& re
                                 "takes up as a reduction)",
                                 charge, electrons));
     const auto r = reaction_properties(reduction_terms, electrons, temperature);
-    // The standard hydrogen electrode, per electron: ½ H2(g) → H⁺(aq) + e⁻.
+    // The standard hydrogen electrode, per electron: ½ H2(g) → H⁺ + e⁻, H⁺ on the conventional scale (h = s = 0
+    // at every temperature: the bookkeeping holds for a melt too, where the terms cancel between electrodes).
     const auto h2 = ideal_gas(Species::hydrogen, temperature);
-    static const SpeciesRecord& proton_row = species_record("H+", Phase::aqueous);
-    const auto proton = species_properties(proton_row, temperature);
-    const double she_h = proton.enthalpy - 0.5 * h2.enthalpy, she_s = proton.entropy - 0.5 * h2.entropy;
+    const double she_h = -0.5 * h2.enthalpy, she_s = -0.5 * h2.entropy;
     const double n = electrons;
     const double dh = r.enthalpy / n + she_h, ds = r.entropy / n + she_s;
     return {dh, ds, dh - temperature * ds, 1};

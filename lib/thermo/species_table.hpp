@@ -24,6 +24,8 @@ namespace ely {
 
 enum class Phase { gas, liquid, aqueous, solid, melt };
 const char* phase_name(Phase phase);
+/// The phase named by phase_name's text ("gas", "liquid", "aqueous", "solid", "melt"); false if none.
+bool phase_from_name(std::string_view name, Phase* phase);
 
 /// One phase along a condensed species' path: cp = a + b·T + c/T² from t_start on; entering this
 /// segment adds transition_enthalpy (J/mol; fusion, say) at t_start (and its entropy ΔH/t_start).

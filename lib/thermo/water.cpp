@@ -8,10 +8,15 @@
 namespace ely {
 
 MolarProperties liquid_water(double temperature, double pressure) {
-    // One-entry memo per thread (pure function; see water_splitting in reaction.cpp).
-    thread_local double memo_t = -1.0, memo_p = -1.0;
-    thread_local MolarProperties memo{};
-    if (temperature == memo_t && pressure == memo_p) return memo;
+    // A few entries of memo per thread (pure function; see water_splitting in reaction.cpp): the plant's
+    // balance takes water at the feed temperature, the gas coolers' outlet and the stack temperature at
+    // every point.
+    constexpr int kEntries = 4;
+    thread_local double memo_t[kEntries] = {-1.0, -1.0, -1.0, -1.0}, memo_p[kEntries] = {-1.0, -1.0, -1.0, -1.0};
+    thread_local MolarProperties memo[kEntries]{};
+    thread_local int next = 0;
+    for (int k = 0; k < kEntries; ++k)
+        if (temperature == memo_t[k] && pressure == memo_p[k]) return memo[k];
     const double M = molar_mass::H2O;
     static const auto ref = if97::region1(kStandardTemperature, kStandardPressure);
     const auto st = if97::region1(temperature, pressure);
@@ -20,9 +25,10 @@ MolarProperties liquid_water(double temperature, double pressure) {
     p.enthalpy = kLiquidWaterFormationEnthalpy + M * (st.h - ref.h);
     p.entropy = kLiquidWaterEntropy298 + M * (st.s - ref.s);
     p.gibbs = p.enthalpy - temperature * p.entropy;
-    memo_t = temperature;
-    memo_p = pressure;
-    memo = p;
+    memo_t[next] = temperature;
+    memo_p[next] = pressure;
+    memo[next] = p;
+    next = (next + 1) % kEntries;
     return p;
 }
 

@@ -23,7 +23,7 @@ void check_alarm_levels(double warning, double trip, double lower_flammability_l
 
 void Block::fill_alarms(const PointResult& r) {
     const auto& c = r.cell;
-    const double j_rated = v_[par_current_density_max];
+    const double j_rated = v_[par_rated_current_density];
     const double t_max = v_[par_temperature_max];
     const auto flag = [](bool raised) { return raised ? 1.0 : 0.0; };
     v_[alarm_h2_in_o2_warning] = flag(c.h2_in_o2 >= v_[par_alarms_h2_in_o2_warning]);

@@ -2,6 +2,7 @@
 // table's limits, tunable parameters, and the solve with its rollback.
 #include "unit/block.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <cstring>
 #include <fmt/format.h>
@@ -98,6 +99,7 @@ Block::Block(PlantDesign design)
             v_[static_cast<std::size_t>(i)] = design_.configured[static_cast<std::size_t>(i)];
     // 0 (or not given) means the cell model's own maximum: the variable holds the value in force.
     if (!(v_[par_current_density_max] > 0)) v_[par_current_density_max] = cell_->envelope().current_density_max;
+    if (!(v_[par_rated_current_density] > 0)) v_[par_rated_current_density] = default_rated_current_density();
     rectifier_rated_power_ = rectifier_rating();
     // What the plant in time takes from the technology and the plant's rating (coolant, heater,
     // heat capacity, ...): settled once, into the design's values, so they are the start values.
@@ -224,9 +226,10 @@ void Block::set_plant_parameter(Var v, double value) {
         check_alarm_levels(levels[0], levels[1], levels[2]);
     }
     if (v == par_current_density_max && !(value > 0)) value = cell_->envelope().current_density_max;
+    if (v == par_rated_current_density && !(value > 0)) value = default_rated_current_density();
     const double before = v_[v];
     v_[v] = value;
-    if (v == par_current_density_max || v == par_rectifier_rated_power) {
+    if (v == par_current_density_max || v == par_rated_current_density || v == par_rectifier_rated_power) {
         try {
             rectifier_rated_power_ = rectifier_rating();
         } catch (...) {
@@ -258,15 +261,22 @@ void Block::set_cell_parameter(std::size_t k, double value) {
     cell_values_ = std::move(values);
 }
 
+double Block::default_rated_current_density() const {
+    // The technology's documented rated value (registry); a technology without one (the custom cell)
+    // is rated at its cell's maximum current density.
+    const double rated = design_.technology->rated_current_density;
+    return rated > 0 ? rated : cell_->envelope().current_density_max;
+}
+
 double Block::rectifier_rating() const {
-    // Sized to the DC power at the rated current density at the configured operating
-    // temperature and pressures, unless a rating is given.
+    // Sized to the DC power at the rated current density (within what the plant and cell allow) at the
+    // configured operating temperature and pressures, unless a rating is given.
     if (v_[par_rectifier_rated_power] > 0) return v_[par_rectifier_rated_power];
     const auto& op = design_.configured;
     const double t = op[in_temperature], pa = op[in_pressure_anode], pc = op[in_pressure_cathode];
-    const double j_max = max_current_density(t, pa, pc);
-    const auto r = cell_->evaluate({j_max, t, pa, pc});
-    return r.voltage * j_max * design_.active_area() * design_.cells() * design_.stacks();
+    const double j = std::min(v_[par_rated_current_density], max_current_density(t, pa, pc));
+    const auto r = cell_->evaluate({j, t, pa, pc});
+    return r.voltage * j * design_.active_area() * design_.cells() * design_.stacks();
 }
 
 double Block::get(int32_t index) const {
@@ -293,6 +303,17 @@ void Block::set_spec(Spec spec) {
     if (spec != spec_) run_.open = 0;
     spec_ = spec;
     outputs_current_ = false;
+}
+
+void Block::keep_state_for_rollback() {
+    last_good_ = v_;
+    last_good_spec_ = spec_;
+    last_good_rating_ = rectifier_rated_power_;
+    last_good_outputs_current_ = outputs_current_;
+    if (last_good_cell_ != cell_) {
+        last_good_cell_ = cell_;
+        last_good_cell_values_ = cell_values_;
+    }
 }
 
 SolveOutcome Block::solve() {
@@ -327,7 +348,7 @@ void Block::roll_back() {
     cell_ = last_good_cell_;
     cell_values_ = last_good_cell_values_;
     rectifier_rated_power_ = last_good_rating_;
-    outputs_current_ = has_solution_;
+    outputs_current_ = last_good_outputs_current_;
 }
 
 void Block::commit_good_state() {
@@ -336,6 +357,7 @@ void Block::commit_good_state() {
     last_good_ = v_;
     last_good_spec_ = spec_;
     last_good_rating_ = rectifier_rated_power_;
+    last_good_outputs_current_ = true;
     if (last_good_cell_ != cell_) {
         last_good_cell_ = cell_;
         last_good_cell_values_ = cell_values_;

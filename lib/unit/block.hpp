@@ -3,8 +3,8 @@
 //   Block(design) → set inputs / tunable parameters → solve() → get outputs → set … → solve() …
 // Outputs can be read only while they belong to the current inputs (after a successful solve
 // and before the next set). A failed solve rolls the spec, the inputs and the parameters back to
-// those of the last successful solve, so the block always holds a consistent solved state (or
-// none yet). A failed set changes nothing.
+// those of the last successful solve (or of the last keep_state_for_rollback()), so the block
+// always holds a consistent state. A failed set changes nothing.
 //
 // The work is split by concern: block.cpp (variables, set/get, parameters, the solve and its
 // rollback), spec_solve.cpp (the current density that meets the spec), streams.cpp (streams,
@@ -23,6 +23,7 @@
 #include <vector>
 
 #include "unit/dynamics.hpp"
+#include "thermo/species.hpp"
 #include "unit/plant.hpp"
 #include "unit/variables.hpp"
 
@@ -42,6 +43,9 @@ public:
     const TechnologyInfo& technology() const { return *design_.technology; }
     /// The cell model in use: the configured one, or one rebuilt after a cell parameter was set.
     const Cell& cell() const { return *cell_; }
+    /// The rated current density a description that gives none gets: the technology's (registry), or
+    /// for a technology without one the cell model's maximum, A/m².
+    double default_rated_current_density() const;
 
     // Variables are addressed by a dense index 0..count-1: the table's variables that the
     // technology has (table order), its cell parameters, then the outputs its cell adds.
@@ -64,6 +68,12 @@ public:
 
     SolveOutcome solve();  // throws on failure after rolling back
     bool solved() const { return outputs_current_; }
+
+    /// Makes the present spec, inputs and parameters the state a failed solve returns to (as a
+    /// successful solve does), with the outputs readable afterwards only if they are now. A batch
+    /// takes it on its working copy, so that a failed point never loses what was set on the
+    /// block between its last solve and the batch.
+    void keep_state_for_rollback();
 
     /// The solved state as a JSON object: technology, spec, the drive input it reads, name, and
     /// every variable with its value (null when not a number) and unit.
@@ -98,6 +108,15 @@ public:
     /// Heat lost to ambient at a stack temperature, W (param.thermal.heat_loss_coefficient per
     /// stack, to in.ambient_temperature).
     double heat_loss_at(double temperature) const;
+    /// The energy balance of an operating point, W: the one place that computes it (streams.cpp), for the
+    /// steady outputs and for a dynamic layer that needs the heat released at the stack's temperature.
+    struct EnergyBalance {
+        double released = 0;      // P_DC + enthalpy of what enters the stacks − of what leaves them at T
+        double loss = 0;          // heat lost to ambient
+        double duty = 0;          // released − loss: heat to remove to hold the stack temperature
+        double gas_coolers = 0;   // heat removed in the gas coolers (stack temperature → cooler outlet)
+        double feed_heating = 0;  // heat supplied to raise steam and heat sweep air (steam-fed cells)
+    };
 
 private:
     enum class Kind : uint8_t { table, cell_parameter, own_output };
@@ -107,6 +126,7 @@ private:
     };
     struct Layout;  // per technology, built once (block.cpp)
     struct PointResult;
+    struct PlantStreams;
 
     Slot slot(int32_t index) const;
     [[noreturn]] void bad_index(int32_t index) const;
@@ -119,6 +139,8 @@ private:
     double solve_current_density(double j_max);
     void evaluate_at(double current_density, PointResult& out) const;
     // streams.cpp
+    void plant_streams(const PointResult& r, PlantStreams& out) const;
+    EnergyBalance energy_balance(const PointResult& r, const PlantStreams& streams) const;
     void fill_outputs(const PointResult& r);
     // alarms.cpp
     void fill_alarms(const PointResult& r);
@@ -183,6 +205,15 @@ private:
     WorkspaceSlot workspace_;
     uint64_t fingerprint_ = 0;
 
+    // Ideal-gas molar enthalpies at the stack and gas-cooler temperatures, kept between solves (streams.cpp):
+    // batches and spec solves at one temperature need them once (a cache of a pure function).
+    struct GasEnthalpies {
+        double temperature = -1.0;
+        uint32_t known = 0;  // bit per Species
+        double enthalpy[kSpeciesCount] = {};
+    };
+    double gas_enthalpy(Species species, double temperature) const;
+
     PlantDesign design_;
     const Layout* layout_;  // static, per technology
     std::size_t own_count_;
@@ -193,6 +224,8 @@ private:
     std::vector<double> v_;  // by Var, then the own outputs
     double rectifier_rated_power_ = 0;
     double last_current_density_ = -1;  // warm start of the spec solves
+    mutable GasEnthalpies gas_enthalpies_[2];
+    mutable int gas_enthalpies_next_ = 0;
 
     // The last successful solve, for rollback.
     std::vector<double> last_good_;
@@ -200,6 +233,7 @@ private:
     std::shared_ptr<const Cell> last_good_cell_;
     std::shared_ptr<const ParameterValues> last_good_cell_values_;
     double last_good_rating_ = 0;
+    bool last_good_outputs_current_ = false;
     bool has_solution_ = false;
     bool outputs_current_ = false;
 };

@@ -127,7 +127,7 @@ void Block::evaluate_point(double temperature, double hours, double current_dens
     fill_outputs(out);
 }
 
-double Block::rated_current_density() const { return v_[par_current_density_max]; }
+double Block::rated_current_density() const { return v_[par_rated_current_density]; }
 
 double Block::time() const {
     if (!running()) throw Error(ErrorKind::wrong_state, "no dynamic run: the block has not been reset");
@@ -887,7 +887,10 @@ SolveOutcome Block::reset(double start_time) {
         try {
             PointResult pr;
             const double t_set = v_[par_temperature_setpoint];
-            evaluate_point(t_set, 0.0, max_current_density(t_set, v_[in_pressure_anode], v_[in_pressure_cathode]), pr);
+            evaluate_point(t_set, 0.0,
+                           std::min(rated_current_density(),
+                                    max_current_density(t_set, v_[in_pressure_anode], v_[in_pressure_cathode])),
+                           pr);
             run_.rated_voltage_new = pr.cell.voltage;
         } catch (const Error& e) {
             if (e.kind() != ErrorKind::out_of_range) throw;

@@ -90,7 +90,8 @@ void Block::settle_dynamic_defaults() {
     {
         const std::vector<double> outputs(v_.begin(), v_.end());  // the sizing leaves no outputs behind
         try {
-            const double j_rated = max_current_density(setpoint, v_[in_pressure_anode], v_[in_pressure_cathode]);
+            const double j_rated = std::min(rated_current_density(),
+                                            max_current_density(setpoint, v_[in_pressure_anode], v_[in_pressure_cathode]));
             PointResult pr;
             evaluate_point(setpoint, 0.0, j_rated, pr);
             duty = kValveMargin * v_[heat_duty];

@@ -97,7 +97,7 @@ std::string Block::run_summary_json() const {
         {"heat_released", "J", "heat released (stacks and heater)", "MWh", 1 / kMWh, s.y[rc_heat_released]},
         {"heat_to_coolant", "J", "heat to coolant", "MWh", 1 / kMWh, s.y[rc_heat_to_coolant]},
         {"heat_loss", "J", "heat lost to ambient", "MWh", 1 / kMWh, s.y[rc_heat_loss]},
-        {"thermal_balance", "J", "heat capacity x temperature change - net heat (closes to the tolerance)", "MWh",
+        {"thermal_balance", "J", "heat capacity x temperature change - net heat (a check: zero)", "MWh",
          1 / kMWh, thermal_balance},
         {"temperature_start", "K", "stack temperature at the start", "degC", 1, s.temperature_at_start},
         {"temperature_end", "K", "stack temperature at the end", "degC", 1, s.y[rc_temperature]},

@@ -93,14 +93,24 @@ double Block::solve_current_density(double j_max) {
             j_lo = j_lo > 0 ? std::min(j_max, j_lo * 1.5) : 1e-9 * j_max;
         }
     }
-    if (q_lo > target)
-        throw Error(ErrorKind::infeasible,
-                    fmt::format("{} = {:.6g} {} is below what the plant gives at its smallest current density "
-                                "{:.6g} A/m2 ({:.6g} {}): below it the gas crossing the separator exceeds the gas made",
-                                info.name, target, info.unit, j_lo, q_lo, info.unit));
     auto f = [&](double j) { return quantity(j) - target; };
-    // Warm start: bracket around the last solution when it still brackets the root.
     double a = j_lo, b = j_max, fa = q_lo - target, fb = q_max - target;
+    if (q_lo > target) {
+        // Below the smallest current density of production the cell is in standby (the gas crossing the
+        // separator exceeds the gas made, purity alarms raised): the target may still lie between open
+        // circuit and there.
+        const double q_0 = quantity(0.0);
+        if (q_0 > target)
+            throw Error(ErrorKind::infeasible,
+                        fmt::format("{} = {:.6g} {} is below what the plant gives at open circuit ({:.6g} {})", info.name,
+                                    target, info.unit, q_0, info.unit));
+        b = j_lo;
+        fb = q_lo - target;
+        a = 0.0;
+        fa = q_0 - target;
+        return brent_root(f, a, b, fa, fb, 1e-13 * j_max);
+    }
+    // Warm start: bracket around the last solution when it still brackets the root.
     if (last_current_density_ * 0.98 > j_lo && last_current_density_ * 1.02 < j_max) {
         const double lo = last_current_density_ * 0.98, hi = last_current_density_ * 1.02;
         const double flo = f(lo);

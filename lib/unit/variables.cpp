@@ -35,7 +35,8 @@ constexpr VariableInfo fraction(const char* name, const char* description) {
     return output(name, "mol/mol", description).within(0, 1).scaled(0.1).shown_in(display::percent);
 }
 
-constexpr uint32_t H2 = kMakesHydrogen, O2 = kMakesOxygen, BRINE = kBrineProducts, TABLE = kReactionTable;
+constexpr uint32_t H2 = kMakesHydrogen, O2 = kMakesOxygen, BRINE = kBrineProducts, TABLE = kReactionTable,
+                   STEAM = kSteamFeed;
 
 // The main product of a cell built from a reaction table (product.main and the figures per kg of
 // it); the rule is also in docs/cells-brine-custom.md.
@@ -105,19 +106,25 @@ constexpr Entry kTable[] = {
     {par_active_area, structural("param.active_area", "m2", "active area per cell")
         .within(1e-6, 100).scaled(0.1).labelled("active area per cell").configured_by("$.stack.active_area")},
     {par_current_density_max, tunable("param.current_density_max", "A/m2",
-        "highest current density of the plant; 0 in the plant description (or when set) = the cell model's own maximum, "
-        "which is then the value")
-        .at_least(0).starts(0).scaled(2e4).labelled("rated current density").shown_in(display::A_per_cm2)
+        "highest current density the plant may be driven to (the spec solves stay at or below it); 0 in the plant "
+        "description (or when set) = the cell model's own maximum (its validity limit), which is then the value")
+        .at_least(0).starts(0).scaled(2e4).labelled("highest current density").shown_in(display::A_per_cm2)
         .configured_by("$.plant.limits.current_density_max")},
+    {par_rated_current_density, tunable("param.limits.rated_current_density", "A/m2",
+        "rated (nominal) current density of the plant: load, minimum load, the current-density alarm and the "
+        "automatic rectifier rating count against it; 0 = the technology's documented rated value (docs/variables.md, "
+        "technology registry), for a custom cell its maximum current density")
+        .at_least(0).starts(0).scaled(1e4).labelled("rated current density").shown_in(display::A_per_cm2)
+        .configured_by("$.plant.limits.rated_current_density")},
     {par_min_load_fraction, tunable("param.limits.min_load_fraction", "1",
-        "minimum load as a fraction of the maximum current density; below it an alarm is raised")
+        "minimum load as a fraction of the rated current density; below it an alarm is raised")
         .within(0, 1).starts(0.1).scaled(0.1).labelled("minimum load").shown_in(display::percent)
         .configured_by("$.plant.limits.min_load_fraction")},
     {par_temperature_max, tunable("param.limits.temperature_max", "K",
         "highest stack temperature of the plant, above it an alarm; 0 = the cell model's envelope")
         .at_least(0).starts(0).scaled(350).labelled("temperature limit").configured_by("$.plant.limits.temperature_max")},
     {par_rectifier_rated_power, tunable("param.rectifier.rated_power", "W",
-        "rated DC power of the plant's rectifier; 0 = sized to the stacks at their maximum current density at the "
+        "rated DC power of the plant's rectifier; 0 = sized to the stacks at the rated current density at the "
         "configured operating point")
         .at_least(0).starts(0).scaled(1e6).labelled("rectifier rating").shown_in(display::MW)
         .configured_by("$.plant.rectifier.rated_power")},
@@ -172,6 +179,13 @@ constexpr Entry kTable[] = {
         "per m2 of cell area, docs/dynamics.md)")
         .at_least(0).starts(kNotGiven).scaled(10).labelled("heat loss coefficient per stack")
         .configured_by("$.plant.thermal.heat_loss_coefficient")},
+    {par_gas_cooler_temperature, tunable("param.thermal.gas_cooler_temperature", "K",
+        "outlet temperature of the gas coolers: the wet product gases are cooled to it (not below the stack "
+        "temperature's own value when that is lower) and the water they condense returns to the water loop "
+        "(default 30 degC: cooling water at 20-25 degC with a 5-10 K approach, common practice; value from memory; "
+        "not below 25 degC, where the gas property fits start)")
+        .within(298.15, 373.15).starts(303.15).scaled(300).labelled("gas cooler outlet temperature").shown_in(display::degC)
+        .configured_by("$.plant.thermal.gas_cooler_temperature")},
 
     {par_heat_capacity, tunable("param.heat_capacity", "J/K",
         "heat capacity of the whole plant: stacks, electrolyte or water loop, separators (dynamic runs; default: "
@@ -179,7 +193,7 @@ constexpr Entry kTable[] = {
         .above(0).starts(kNotGiven).scaled(1e7).labelled("heat capacity").shown_in(display::MJ_per_K)
         .configured_by("$.plant.heat_capacity")},
     {par_ramp_rate, tunable("param.ramp_rate", "1/s",
-        "fastest change of the current in dynamic runs, as a fraction of the rated current (param.current_density_max "
+        "fastest change of the current in dynamic runs, as a fraction of the rated current (param.limits.rated_current_density "
         "x active area x stacks) per second (default: the technology's)")
         .above(0).at_most(1e3).starts(kNotGiven).scaled(0.01).labelled("ramp rate").shown_in(display::percent_per_s)
         .configured_by("$.plant.ramp_rate")},
@@ -317,23 +331,41 @@ constexpr Entry kTable[] = {
     {product_main, output("product.main", "kg/s",
         "main product made, plant total (NaN when its reaction gives no product_molar_mass); main product: " ELY_MAIN_PRODUCT_RULE)
         .needing(TABLE).scaled(1e-2).labelled("main product made").shown_in(display::kg_per_h)},
-    {feed_water, output("feed.water", "kg/s", "net make-up water: reaction + vapour leaving with the gases + water not returned")
+    {feed_water, output("feed.water", "kg/s",
+        "make-up water the plant takes in at the feed temperature: the water reacted + the vapour still in the gases "
+        "after their gas coolers (stream.dryer_loss and the vented anode gas's) + water drained (stream.drain) + the "
+        "water of the caustic solution (brine); the gas coolers' condensate returns to the loop")
         .scaled(1e-1).labelled("make-up water").shown_in(display::kg_per_h)},
     {feed_salt, output("feed.salt", "kg/s", "sodium chloride consumed")
         .needing(BRINE).scaled(1e-1).labelled("salt").shown_in(display::kg_per_h)},
+    {feed_hydrogen, output("feed.hydrogen", "kg/s",
+        "hydrogen drawn back from the product line: in hot standby (no current) or below the current density at "
+        "which the gas crossing the separator equals the gas made, the cathode loses more hydrogen to the anode side "
+        "than it makes, and the plant holding its cathode pressure feeds the difference; 0 in production")
+        .needing(H2).at_least(0).scaled(1e-4).labelled("hydrogen drawn back (standby)").shown_in(display::kg_per_h)},
+    {feed_sweep_air, output("feed.sweep_air", "kg/s",
+        "air swept over the oxygen electrode (cell.oxygen_electrode_o2_fraction below 1); it enters at the feed "
+        "temperature, is heated to the stack temperature (heat.feed_heating) and leaves with the oxygen")
+        .needing(STEAM).at_least(0).scaled(1e-1).labelled("sweep air").shown_in(display::kg_per_h)},
 
-    {stream_cathode_mass_flow, output("stream.cathode.mass_flow", "kg/s", "cathode product stream, wet")
-        .scaled(1e-2).labelled("cathode gas (wet)").shown_in(display::kg_per_h)},
-    {stream_cathode_temperature, output("stream.cathode.temperature", "K", "cathode product stream temperature")
+    {stream_cathode_mass_flow, output("stream.cathode.mass_flow", "kg/s",
+        "cathode (hydrogen-side) product gas leaving the plant after its gas cooler, wet: saturated at the cooler "
+        "outlet temperature")
+        .scaled(1e-2).labelled("cathode gas (wet, cooled)").shown_in(display::kg_per_h)},
+    {stream_cathode_temperature, output("stream.cathode.temperature", "K",
+        "cathode product gas temperature after its gas cooler (the stack temperature when that is lower)")
         .scaled(350).labelled("cathode gas temperature").shown_in(display::degC)},
     {stream_cathode_pressure, output("stream.cathode.pressure", "Pa", "cathode product stream pressure")
         .scaled(1e5).labelled("cathode gas pressure").shown_in(display::bar)},
     {stream_cathode_x_h2, fraction("stream.cathode.x_h2", "hydrogen mole fraction of the wet cathode gas").labelled("cathode gas H2")},
     {stream_cathode_x_o2, fraction("stream.cathode.x_o2", "oxygen mole fraction of the wet cathode gas").labelled("cathode gas O2")},
     {stream_cathode_x_h2o, fraction("stream.cathode.x_h2o", "water vapour mole fraction of the wet cathode gas").labelled("cathode gas H2O")},
-    {stream_anode_mass_flow, output("stream.anode.mass_flow", "kg/s", "anode product stream, wet (gas only)")
-        .scaled(1e-1).labelled("anode gas (wet)").shown_in(display::kg_per_h)},
-    {stream_anode_temperature, output("stream.anode.temperature", "K", "anode product stream temperature")
+    {stream_anode_mass_flow, output("stream.anode.mass_flow", "kg/s",
+        "anode product gas leaving the plant after its gas cooler, wet (gas only; with the sweep air of a swept "
+        "oxygen electrode)")
+        .scaled(1e-1).labelled("anode gas (wet, cooled)").shown_in(display::kg_per_h)},
+    {stream_anode_temperature, output("stream.anode.temperature", "K",
+        "anode product gas temperature after its gas cooler (the stack temperature when that is lower)")
         .scaled(350).labelled("anode gas temperature").shown_in(display::degC)},
     {stream_anode_pressure, output("stream.anode.pressure", "Pa", "anode product stream pressure")
         .scaled(1e5).labelled("anode gas pressure").shown_in(display::bar)},
@@ -341,6 +373,20 @@ constexpr Entry kTable[] = {
     {stream_anode_x_h2, fraction("stream.anode.x_h2", "hydrogen mole fraction of the wet anode gas").labelled("anode gas H2")},
     {stream_anode_x_cl2, fraction("stream.anode.x_cl2", "chlorine mole fraction of the wet anode gas").needing(BRINE).labelled("anode gas Cl2")},
     {stream_anode_x_h2o, fraction("stream.anode.x_h2o", "water vapour mole fraction of the wet anode gas").labelled("anode gas H2O")},
+    {stream_anode_x_n2, fraction("stream.anode.x_n2", "nitrogen mole fraction of the wet anode gas (sweep air; argon counted with it)")
+        .needing(STEAM).labelled("anode gas N2")},
+    {stream_condensate_mass_flow, output("stream.condensate.mass_flow", "kg/s",
+        "water condensed from both product gases in their gas coolers and returned to the water loop (internal: "
+        "neither make-up nor product)")
+        .at_least(0).scaled(1e-1).labelled("condensate returned").shown_in(display::kg_per_h)},
+    {stream_drain_mass_flow, output("stream.drain.mass_flow", "kg/s",
+        "liquid water leaving the plant at the stack temperature: water dragged to the cathode when it is not "
+        "returned (plant.drag_water_returned false)")
+        .at_least(0).scaled(1e-1).labelled("water drained").shown_in(display::kg_per_h)},
+    {stream_dryer_loss_mass_flow, output("stream.dryer_loss.mass_flow", "kg/s",
+        "water vapour left in the cooled hydrogen-side gas (part of stream.cathode), which its dryer removes and "
+        "discharges: lost from the plant's water")
+        .needing(H2).at_least(0).scaled(1e-3).labelled("water lost in the dryer").shown_in(display::kg_per_h)},
 
     {gas_h2_in_o2, fraction("gas.h2_in_o2", "hydrogen in the dry anode gas; in dynamic runs the gas of the anode separator, "
         "which the alarms watch").scaled(0.01).labelled("H2 in anode gas (dry)")},
@@ -349,10 +395,23 @@ constexpr Entry kTable[] = {
     {gas_o2_in_h2, fraction("gas.o2_in_h2", "oxygen in the dry cathode gas").scaled(0.001).labelled("O2 in cathode gas (dry)")},
     {gas_o2_in_cl2, fraction("gas.o2_in_cl2", "oxygen in the dry chlorine (anode) gas").needing(BRINE).scaled(0.01).labelled("O2 in chlorine (dry)")},
 
-    {heat_duty, output("heat.duty", "W", "heat to remove to hold the stack temperature (negative: heat to supply)")
+    {heat_duty, output("heat.duty", "W",
+        "heat to remove from the stacks to hold their temperature (negative: heat to supply): DC power + the enthalpy "
+        "of what enters the stacks (make-up water at the feed temperature, condensate at the gas cooler temperature, "
+        "steam and sweep air at the stack temperature, salt solutions) - the enthalpy of what leaves them at the stack "
+        "temperature - heat.loss")
         .scaled(1e5).labelled("heat duty (+ remove, - supply)").shown_in(display::kW)},
     {heat_loss, output("heat.loss", "W", "heat lost to ambient")
         .scaled(1e3).labelled("heat lost to ambient").shown_in(display::kW)},
+    {heat_gas_coolers, output("heat.gas_coolers", "W",
+        "heat removed in the gas coolers: both product gases cooled from the stack temperature to the cooler outlet "
+        "temperature, with the condensation of the water they lose")
+        .scaled(1e4).labelled("heat removed in the gas coolers").shown_in(display::kW)},
+    {heat_feed_heating, output("heat.feed_heating", "W",
+        "heat supplied to raise the steam fed to a steam-fed cell from the make-up water (feed temperature) and the "
+        "returned condensate (gas cooler temperature), and to heat the sweep air, to the stack temperature; no heat "
+        "is recovered from the products here (heat.gas_coolers is what they give off)")
+        .needing(STEAM).scaled(1e5).labelled("heat to raise steam and sweep air").shown_in(display::kW)},
     {heat_released, output("heat.released", "W",
         "heat released in the plant: the stacks' net heat at their temperature (electrical input less the enthalpy "
         "rise from the feed at its own temperature to the products at stack temperature; heat.duty + heat.loss) plus "
@@ -385,13 +444,18 @@ constexpr Entry kTable[] = {
         .needing(H2).scaled(2e8).labelled("specific energy, DC stack").shown_in(display::kWh_per_kg)},
     {perf_specific_energy_plant, output("perf.specific_energy_plant", "J/kg", "AC plant energy per kg of hydrogen product")
         .needing(H2).scaled(2e8).labelled("specific energy, AC plant").shown_in(display::kWh_per_kg)},
-    {perf_efficiency_hhv, output("perf.efficiency_hhv", "1", "hydrogen product HHV at 25 degC over DC stack power")
-        .needing(H2).labelled("efficiency (HHV, DC)").shown_in(display::percent)},
-    {perf_efficiency_lhv, output("perf.efficiency_lhv", "1", "hydrogen product LHV at 25 degC over DC stack power")
-        .needing(H2).labelled("efficiency (LHV, DC)").shown_in(display::percent)},
+    {perf_efficiency_hhv, output("perf.efficiency_hhv", "1",
+        "hydrogen product HHV at 25 degC over the energy the plant takes in to make it: DC stack power plus the heat "
+        "supplied from outside (heat.feed_heating of a steam-fed cell, and the heat a stack run below thermoneutral "
+        "needs, -heat.duty when negative); at most 1 on this basis")
+        .needing(H2).labelled("efficiency (HHV; DC + heat supplied)").shown_in(display::percent)},
+    {perf_efficiency_lhv, output("perf.efficiency_lhv", "1",
+        "hydrogen product LHV at 25 degC over the same energy as perf.efficiency_hhv (DC stack power plus the heat "
+        "supplied from outside)")
+        .needing(H2).labelled("efficiency (LHV; DC + heat supplied)").shown_in(display::percent)},
     {perf_specific_energy_chlorine, output("perf.specific_energy_chlorine", "J/kg", "DC stack energy per kg of chlorine product")
         .needing(BRINE).scaled(1e7).labelled("DC energy per tonne of chlorine").shown_in(display::kWh_per_t)},
-    {perf_load_fraction, output("perf.load_fraction", "1", "current density over the maximum current density")
+    {perf_load_fraction, output("perf.load_fraction", "1", "current density over the rated current density")
         .scaled(0.5).labelled("load (of rated current density)").shown_in(display::percent)},
     {perf_water_per_hydrogen, output("perf.water_per_hydrogen", "1", "make-up water per hydrogen product, kg/kg")
         .needing(H2).scaled(9).labelled("water per hydrogen").shown_in(display::kg_per_kg)},
@@ -415,10 +479,10 @@ constexpr Entry kTable[] = {
         "1 when hydrogen in the anode gas is at or above the trip level")},
     {alarm_temperature_high, alarm("alarm.temperature_high", "stack temperature above its limit",
         "1 when the stack temperature is above its limit")},
-    {alarm_current_density_high, alarm("alarm.current_density_high", "current density above the rated maximum",
-        "1 when the current density is above the rated maximum")},
+    {alarm_current_density_high, alarm("alarm.current_density_high", "current density above the rated current density",
+        "1 when the current density is above the rated current density")},
     {alarm_load_low, alarm("alarm.load_low", "load below the minimum load",
-        "1 when the load is below the minimum load fraction")},
+        "1 when the current density is below the minimum load fraction of the rated current density")},
     {alarm_extrapolated, alarm("alarm.extrapolated", "cell model extrapolated beyond its fitted range",
         "1 when the cell model runs outside the range its parameters were fitted in")},
     {alarm_any, alarm("alarm.any", "an alarm is raised", "1 when any alarm above is raised")},

@@ -32,12 +32,12 @@ enum Var : int {
     in_coolant_temperature, in_coolant_flow, in_ambient_temperature, in_mode_request,
     // parameters: structural (fixed by the plant description), then tunable
     par_cells, par_stacks, par_active_area,
-    par_current_density_max, par_min_load_fraction, par_temperature_max,
+    par_current_density_max, par_rated_current_density, par_min_load_fraction, par_temperature_max,
     par_rectifier_rated_power, par_rectifier_loss_no_load, par_rectifier_loss_linear, par_rectifier_loss_quadratic,
     par_auxiliaries_fixed, par_auxiliaries_proportional,
     par_alarms_h2_in_o2_warning, par_alarms_h2_in_o2_trip, par_alarms_lower_flammability_limit,
     par_degradation_voltage_rate, par_degradation_resistance_rate, par_degradation_voltage_limit,
-    par_heat_loss_coefficient,
+    par_heat_loss_coefficient, par_gas_cooler_temperature,
     // parameters of the plant in time (dynamic runs)
     par_heat_capacity, par_ramp_rate, par_exchanger_ua, par_coolant_heat_capacity, par_temperature_control,
     par_temperature_setpoint, par_control_band, par_integral_time, par_holdup_time,
@@ -52,16 +52,18 @@ enum Var : int {
     plant_rectifier_loss, plant_rectifier_efficiency, plant_auxiliary_power,
     // products and feeds (plant totals)
     product_hydrogen, product_oxygen, product_chlorine, product_caustic, product_caustic_solution,
-    product_main, feed_water, feed_salt,
+    product_main, feed_water, feed_salt, feed_hydrogen, feed_sweep_air,
     // streams
     stream_cathode_mass_flow, stream_cathode_temperature, stream_cathode_pressure, stream_cathode_x_h2,
     stream_cathode_x_o2, stream_cathode_x_h2o,
     stream_anode_mass_flow, stream_anode_temperature, stream_anode_pressure, stream_anode_x_o2,
-    stream_anode_x_h2, stream_anode_x_cl2, stream_anode_x_h2o,
+    stream_anode_x_h2, stream_anode_x_cl2, stream_anode_x_h2o, stream_anode_x_n2,
+    stream_condensate_mass_flow, stream_drain_mass_flow, stream_dryer_loss_mass_flow,
     // purity
     gas_h2_in_o2, gas_h2_in_o2_stack, gas_o2_in_h2, gas_o2_in_cl2,
     // heat
-    heat_duty, heat_loss, heat_released, heat_heater, heat_to_coolant, coolant_flow, coolant_outlet_temperature,
+    heat_duty, heat_loss, heat_gas_coolers, heat_feed_heating, heat_released, heat_heater, heat_to_coolant, coolant_flow,
+    coolant_outlet_temperature,
     // the state of the plant in time
     state_mode, state_hours_operated, state_starts,
     // performance

@@ -129,6 +129,18 @@ std::string variables_markdown() {
         out += '\n';
     }
 
+    out += "## Rated current densities\n\n"
+           "The default of `plant.limits.rated_current_density` (`param.limits.rated_current_density`) per "
+           "technology: load (`perf.load_fraction`), minimum load and `alarm.current_density_high` count against "
+           "it, and the automatic rectifier rating is sized at it. It is the plant's nominal operating point, not "
+           "the cell model's validity limit (`param.current_density_max`, the cell's envelope by default).\n\n"
+           "| technology | rated current density | source |\n|---|---|---|\n";
+    for (const auto& t : technologies())
+        out += fmt::format("| {} | {} | {} |\n", t.name,
+                           t.rated_current_density > 0 ? fmt::format("{:g} A/cm2", t.rated_current_density * 1e-4)
+                                                       : std::string("—"),
+                           t.rated_current_density_source);
+    out += "\n";
     out += "## Defaults of the plant in time, per technology\n\n"
            "What a dynamic run takes from the technology where the plant description leaves a value out (the "
            "registry's dynamic defaults; equations and sources in `docs/dynamics.md`). Per-area values are per m2 "

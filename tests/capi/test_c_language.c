@@ -186,3 +186,94 @@ int ely_c_test_parse_quantity(char* why, size_t why_size) {
     CHECK(ely_parse_quantity("1 K", "K", NULL) == ELY_ERR_INVALID_ARGUMENT);
     return 0;
 }
+
+/* ely_parse_quantity (text with its unit) and ely_convert_unit (a number and its unit apart)
+ * are one conversion: the same double for every quantity, and the same refusal. Values in the
+ * target unit by the unit definitions (SI Brochure, 9th ed.; 1 atm = 101325 Pa, NIST SP 811). */
+int ely_c_test_units_agree(char* why, size_t why_size) {
+    static const struct {
+        double number;
+        const char* unit;
+        const char* si;
+        double expected;
+    } cases[] = {
+        {2.0, "A/cm2", "A/m2", 2e4},         {1.5, "MW", "W", 1.5e6},          {30.0, "bar", "Pa", 3e6},
+        {1.0, "atm", "kPa", 101.325},        {80.0, "degC", "K", 353.15},      {0.15, "ohm cm2", "ohm m2", 1.5e-5},
+        {25.0, "%", "1", 0.25},              {50.0, "kWh/kg", "J/kg", 1.8e8},  {-40.0, "degC", "K", 233.15},
+        {3.0, "mol/s", "mol/h", 10800.0},    {12.5, "kg/h", "kg/s", 12.5 / 3600.0},
+    };
+    char text[64];
+    size_t k;
+    double by_text = 0, by_number = 0, back = 0;
+    for (k = 0; k < sizeof cases / sizeof cases[0]; ++k) {
+        snprintf(text, sizeof text, "%.17g %s", cases[k].number, cases[k].unit);
+        CHECK(ely_parse_quantity(text, cases[k].si, &by_text) == ELY_OK);
+        CHECK(ely_convert_unit(cases[k].number, cases[k].unit, cases[k].si, &by_number) == ELY_OK);
+        CHECK(by_text == by_number);
+        CHECK(fabs(by_text - cases[k].expected) <= 1e-15 * fabs(cases[k].expected));
+        /* and back into the unit it came in, degC included */
+        CHECK(ely_convert_unit(by_number, cases[k].si, cases[k].unit, &back) == ELY_OK);
+        CHECK(fabs(back - cases[k].number) <= 1e-13 * fabs(cases[k].number));
+    }
+    CHECK(ely_convert_unit(25.0, "degC", "degC", &back) == ELY_OK && back == 25.0); /* offsets cancel exactly */
+    CHECK(ely_parse_quantity("1 bar", "K", &by_text) == ELY_ERR_INVALID_ARGUMENT);
+    CHECK(strstr(ely_last_error(), "expected a quantity in K, got 'bar'") != NULL);
+    CHECK(ely_convert_unit(1.0, "bar", "K", &by_number) == ELY_ERR_INVALID_ARGUMENT);
+    CHECK(strstr(ely_last_error(), "expected a quantity in K, got 'bar'") != NULL);
+    CHECK(ely_convert_unit(1e300, "GW", "W", &by_number) == ELY_ERR_INVALID_ARGUMENT);
+    CHECK(strstr(ely_last_error(), "out of range") != NULL);
+    return 0;
+}
+
+/* A batch after a failed point keeps what was set on the block before the batch: the inputs,
+ * a tunable parameter and the spec set since the block's last solve (or, here, with no solve
+ * at all). Point 0 asks for an impossible current density and fails; point 1 must be solved at
+ * the block's state at the start of the batch, which a separate solve of a clone at the same
+ * inputs gives (the current-density spec is solved directly: the same bits). */
+int ely_c_test_batch_after_a_failed_point(const char* config_json, char* why, size_t why_size) {
+    ely_block* b = NULL;
+    ely_block* c = NULL;
+    int32_t i_j = -1, i_t = -1, i_r = -1, i_v = -1, i_p = -1, i_power = -1, st[2] = {0, 0};
+    int32_t out_idx[4];
+    double in[2] = {1.0e6, 1.0e4}, out[8], v = 0, r0 = 0; /* 100 A/cm2: beyond any cell's limit */
+    double power_in[2] = {1.0e12, 4.0e5};
+
+    CHECK(ely_block_create(config_json, &b) == ELY_OK);
+    CHECK(ely_block_find(b, "in.current_density", &i_j) == ELY_OK);
+    CHECK(ely_block_find(b, "in.temperature", &i_t) == ELY_OK);
+    CHECK(ely_block_find(b, "param.cell.contact_resistance", &i_r) == ELY_OK);
+    CHECK(ely_block_find(b, "cell.voltage", &i_v) == ELY_OK);
+    CHECK(ely_block_find(b, "stack.power", &i_p) == ELY_OK);
+    CHECK(ely_block_find(b, "in.power", &i_power) == ELY_OK);
+    CHECK(ely_block_get(b, i_r, &r0) == ELY_OK && r0 > 0);
+    CHECK(ely_block_set(b, i_t, 352.0) == ELY_OK);        /* never solved at it */
+    CHECK(ely_block_set(b, i_r, 2.0 * r0) == ELY_OK);
+
+    out_idx[0] = i_t;
+    out_idx[1] = i_r;
+    out_idx[2] = i_v;
+    out_idx[3] = i_p;
+    CHECK(ely_block_solve_batch(b, 2, 1, &i_j, in, 4, out_idx, out, st, NULL, NULL) == ELY_PARTIAL);
+    CHECK(st[0] < 0 && st[1] >= 0);
+    CHECK(isnan(out[0]) && isnan(out[2]));
+    CHECK(out[4] == 352.0);    /* the input set before the batch */
+    CHECK(out[5] == 2.0 * r0); /* the parameter set before the batch */
+    CHECK(ely_block_clone(b, &c) == ELY_OK);
+    CHECK(ely_block_set(c, i_j, 1.0e4) == ELY_OK && ely_block_solve(c) >= 0);
+    CHECK(ely_block_get(c, i_v, &v) == ELY_OK && out[6] == v);
+    ely_block_destroy(c);
+    c = NULL;
+    /* The block itself is unchanged: still its inputs, still unsolved. */
+    CHECK(ely_block_get(b, i_t, &v) == ELY_OK && v == 352.0);
+    CHECK(ely_block_get(b, i_v, &v) == ELY_ERR_WRONG_STATE);
+
+    /* The spec set on the block since its last solve: a power setpoint far beyond the plant
+     * fails, the next point is solved at the power spec (DC power equal to its setpoint). */
+    CHECK(ely_block_set(b, i_j, 1.0e4) == ELY_OK && ely_block_solve(b) >= 0);
+    CHECK(ely_block_set_spec(b, "power") == ELY_OK);
+    CHECK(ely_block_solve_batch(b, 2, 1, &i_power, power_in, 4, out_idx, out, st, NULL, NULL) == ELY_PARTIAL);
+    CHECK(st[0] < 0 && st[1] >= 0);
+    CHECK(fabs(out[7] / 4.0e5 - 1.0) < 1e-9);
+    ely_block_destroy(b);
+    return 0;
+}

@@ -18,3 +18,14 @@ TEST(CLanguage, ParseQuantityFromC) {
     char why[512] = "";
     EXPECT_EQ(ely_c_test_parse_quantity(why, sizeof why), 0) << why;
 }
+
+TEST(CLanguage, ParseQuantityAndConvertUnitAreOneConversion) {
+    char why[512] = "";
+    EXPECT_EQ(ely_c_test_units_agree(why, sizeof why), 0) << why;
+}
+
+TEST(CLanguage, BatchAfterAFailedPointKeepsTheStateSetBeforeIt) {
+    char why[512] = "";
+    const std::string json = capi_test::minimal_config("pem");
+    EXPECT_EQ(ely_c_test_batch_after_a_failed_point(json.c_str(), why, sizeof why), 0) << why;
+}

@@ -287,7 +287,7 @@ TEST(CDynamics, IndependentHandlesOnThreadsGiveTheSerialNumbers) {
     const auto work = [&](int t, std::vector<double>& out) {
         Block b(json);
         if (t % 2) ely_block_set_spec(b.get(), "power");
-        const Profile p = profile(400 + 40 * t);
+        const Profile p = profile(150 + 20 * t);
         const int32_t in_idx[] = {b.index(t % 2 ? "in.power" : "in.current_density"), b.index("in.mode_request")};
         std::vector<double> inputs = p.inputs;
         if (t % 2 == 0)

@@ -2,8 +2,10 @@
 // library's own fit, the buffer protocol of the report and the plant, the calibrated block, and
 // every error path (NULLs, counts, indices, names, options, cancellation, the iteration limit, a
 // row the model refuses), each leaving the block unchanged and *result NULL. Unit conversion.
+#include <boost/json.hpp>
 #include <gmock/gmock.h>
 
+#include <cmath>
 #include <cstdint>
 #include <cstring>
 #include <string>
@@ -163,6 +165,39 @@ TEST(Fit, ParameterAccessorChecks) {
     EXPECT_EQ(ely_fit_parameter(nullptr, 0, &v, nullptr), ELY_ERR_INVALID_ARGUMENT);
     EXPECT_EQ(v, -1);
     ely_fit_destroy(nullptr);  // no-op
+}
+
+TEST(Fit, RmseAccessorGivesTheReportsRmseAndRows) {
+    Block h(kPem);
+    Curve c(h);
+    c.voltages[3] = NAN;  // not measured at row 4
+    std::vector<double> weights(c.points, 1.0);
+    weights[5] = 0.0;     // weighed out, still measured
+    Fit fit;
+    ASSERT_GE(ely_block_fit(h.get(), c.points, 1, c.inputs.data(), c.input_values.data(), 1, c.measured.data(),
+                            c.voltages.data(), weights.data(), 1, kFree + 1, nullptr, nullptr, nullptr, &fit.p),
+              0)
+        << ely_last_error();
+    double rmse = -1;
+    size_t rows = 0;
+    ASSERT_EQ(ely_fit_rmse(fit.p, 0, &rmse, &rows), ELY_OK);
+    EXPECT_EQ(rows, c.points - 1);
+    // The root mean square of the report's residuals, summed here (an identity the accessor does
+    // not use: it reads the fit's own value).
+    const auto report = boost::json::parse(report_of(fit.p)).as_object();
+    double sum = 0;
+    for (const auto& row : report.at("residuals").as_array())
+        if (!row.as_array()[0].is_null()) sum += std::pow(row.as_array()[0].to_number<double>(), 2);
+    EXPECT_NEAR(rmse, std::sqrt(sum / static_cast<double>(c.points - 1)), 1e-15);
+    EXPECT_EQ(rmse, report.at("rmse_V").to_number<double>());
+    size_t only_rows = 0;
+    EXPECT_EQ(ely_fit_rmse(fit.p, 0, nullptr, &only_rows), ELY_OK);
+    EXPECT_EQ(only_rows, rows);
+    EXPECT_EQ(ely_fit_rmse(fit.p, 1, &rmse, &rows), ELY_ERR_INVALID_ARGUMENT);
+    EXPECT_THAT(ely_last_error(), HasSubstr("measured variable 1 is outside 0..0"));
+    EXPECT_EQ(ely_fit_rmse(fit.p, -1, &rmse, &rows), ELY_ERR_INVALID_ARGUMENT);
+    EXPECT_EQ(ely_fit_rmse(fit.p, 0, nullptr, nullptr), ELY_ERR_INVALID_ARGUMENT);
+    EXPECT_EQ(ely_fit_rmse(nullptr, 0, &rmse, &rows), ELY_ERR_INVALID_ARGUMENT);
 }
 
 TEST(Fit, WarningStatusNamesTheParameters) {

@@ -31,8 +31,10 @@ const char* const kMinimalConfigs[] = {
     R"({"technology":"solid_oxide","stack":{"cells":100,"active_area":0.1},"operating":{"spec":"current_density"}})",
     R"({"technology":"brine","stack":{"cells":100,"active_area":0.1},"operating":{"spec":"current_density"}})",
     R"({"technology":"custom","stack":{"cells":10,"active_area":0.1},"operating":{"spec":"current_density"},)"
-    R"("reactions":{"anode":[{"name":"o","product":"O2","electrons":4,"standard_potential":"1.229 V"}],)"
-    R"("cathode":[{"name":"h","product":"H2","electrons":2,"standard_potential":"0 V"}]}})",
+    R"("reactions":{"anode":[{"name":"o","product":"O2","electrons":4,"standard_potential":"1.229 V",)"
+    R"("activation_energy":"50 kJ/mol"}],)"
+    R"("cathode":[{"name":"h","product":"H2","electrons":2,"standard_potential":"0 V",)"
+    R"("activation_energy":"30 kJ/mol"}]}})",  // any values: a seed for the fuzzer, not a cell
 };
 
 const double kSpecialValues[] = {0.0, -0.0, 1.0, -1.0, 1e300, -1e300, 5e-324, 1e-320,

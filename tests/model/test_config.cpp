@@ -623,7 +623,7 @@ TEST(Config, ReactionsAndTechnology) {
     expect_config_error(json, "$.reactions.anode", "at most 8 per electrode");
     json = R"({ "technology": "custom", )" + std::string(kMinimalTail) +
            R"(, "reactions": { "anode": [ { "name": "x", "product": "O2" } ], "cathode": [] } })";
-    expect_config_error(json, "$.reactions.anode[0]", "missing required key 'standard_potential'");
+    expect_config_error(json, "$.reactions.anode[0]", "missing key 'standard_potential'");
     json = custom_minimal();
     json.replace(json.find("\"electrons\": 4"), 14, "\"electrons\": 0");
     expect_config_error(json, "$.reactions.anode[0].electrons", "below the lower limit 1");
@@ -632,6 +632,78 @@ TEST(Config, ReactionsAndTechnology) {
     expect_config_error(json, "$.reactions.cathode[0].exchange_current_density", "must be above 0 A/m2");
     expect_config_error(custom_minimal(R"("cell": { "temperature_min": 400, "temperature_max": 350 })"), "$.cell",
                         "temperature_min 400 K must be below temperature_max 350 K");
+}
+
+// Zinc electrowinning written with species: Zn2+(aq) + 2 e- -> Zn(s) against O2 + 4 H+ + 4 e- -> 2 H2O(l), rows of
+// the bundled table (NBS 1982 ions, CODATA water, JANAF zinc), and a row the config adds.
+const char* kSpeciesReactions = R"json("reactions": {
+    "species": [ { "name": "Zn+2", "phase": "melt", "molar_mass": "65.38 g/mol", "charge": 2,
+                   "formation_enthalpy": "-153.89 kJ/mol", "entropy": "-112.1 J/(mol K)", "cp_a": 46,
+                   "temperature_min": 273.15, "temperature_max": 373.15, "source": "invented test row" } ],
+    "anode": [ { "name": "oxygen evolution", "product": "O2", "electrons": 4,
+                 "species": [ { "species": "O2", "phase": "gas", "coefficient": -1 },
+                              { "species": "H+", "phase": "aqueous", "coefficient": -4 },
+                              { "species": "H2O", "phase": "liquid", "coefficient": 2 } ],
+                 "exchange_current_density": 1e-3, "activation_energy": 60e3 } ],
+    "cathode": [ { "name": "zinc deposition", "product": "Zn", "electrons": 2,
+                   "species": [ { "species": "Zn+2", "phase": "aqueous", "coefficient": -1 },
+                                { "species": "Zn", "phase": "solid", "coefficient": 1 } ],
+                   "exchange_current_density": 10, "activation_energy": 30e3 } ] })json";
+
+TEST(Config, ReactionSpeciesFromTheTableAndTheConfig) {
+    const auto swapped = [](std::string text, const std::string& from, const std::string& to) {
+        return text.replace(text.find(from), from.size(), to);
+    };
+    const std::string json = std::string(R"({ "technology": "custom", )") + kMinimalTail + ", " + kSpeciesReactions + " }";
+    const PlantDesign d = parse_config(json);
+    ASSERT_TRUE(d.custom);
+    const auto& oxygen = d.custom->anode[0].species;
+    ASSERT_EQ(oxygen.size(), 3u);
+    EXPECT_EQ(oxygen[1].species.name, "H+");
+    EXPECT_EQ(oxygen[1].coefficient, -4.0);
+    const auto& zinc = d.custom->cathode[0].species;
+    EXPECT_EQ(zinc[0].species.phase, Phase::aqueous);  // the bundled aqueous row, not the config's melt row
+    EXPECT_EQ(zinc[0].species.formation_enthalpy, species_record("Zn+2", Phase::aqueous).formation_enthalpy);
+    // The product's molar mass follows from its species (IUPAC 65.38 g/mol).
+    const auto r = d.cell->evaluate({400.0, 298.15, 1e5, 1e5});
+    EXPECT_NEAR(r.thermoneutral_voltage, 2.27869, 2e-5);  // ΔH from NBS/CODATA by hand (test_custom.cpp)
+    // A config row is used where a reaction names it.
+    std::string own = json;
+    own = swapped(own, R"("species": "Zn+2", "phase": "aqueous")", R"("species": "Zn+2", "phase": "melt")");
+    EXPECT_EQ(parse_config(own).custom->cathode[0].species[0].species.source, "invented test row");
+    // Errors name the path.
+    std::string bad = json;
+    bad = swapped(bad, R"("species": "Zn", "phase": "solid")", R"("species": "Zq", "phase": "solid")");
+    expect_config_error(bad, "$.reactions.cathode[0].species[1].species", "species 'Zq' (solid) is not in the species table");
+    bad = json;
+    bad = swapped(bad, R"("phase": "solid")", R"("phase": "plasma")");
+    expect_config_error(bad, "$.reactions.cathode[0].species[1].phase", "'plasma' is not a phase");
+    bad = json;
+    bad = swapped(bad, R"("product": "Zn", "electrons": 2,)", R"("product": "Zn", "electrons": 2, "standard_potential": -0.76,)");
+    expect_config_error(bad, "$.reactions.cathode[0].standard_potential", "not both");
+    bad = json;
+    bad = swapped(bad, R"("source": "invented test row")", R"("sauce": 1)");
+    expect_config_error(bad, "$.reactions.species[0]", "unknown key 'sauce'");
+    bad = json;
+    bad = swapped(bad, R"("name": "Zn+2", "phase": "melt")", R"("name": "Zn+2", "phase": "aqueous")");
+    expect_config_error(bad, "$.reactions.species[0].name", "is in the bundled table already");
+    bad = json;
+    bad = swapped(bad, R"("temperature_max": 373.15)", R"("temperature_max": 200)");
+    expect_config_error(bad, "$.reactions.species[0]", "highest temperature");
+    // Charges that do not balance the electrons are refused by the cell, with the reaction named.
+    bad = json;
+    bad = swapped(bad, R"("product": "Zn", "electrons": 2)", R"("product": "Zn", "electrons": 1)");
+    expect_config_error(bad, "$.reactions", "charges must sum to -1");
+    // A table without enthalpy data (no species, not water splitting) needs its thermoneutral voltage.
+    const std::string bare = std::string(R"({ "technology": "custom", )") + kMinimalTail + R"(, "reactions": {
+        "anode": [ { "name": "chlorine", "product": "Cl2", "standard_potential": 1.358, "activation_energy": 3e4 } ],
+        "cathode": [ { "name": "zinc", "product": "Zn", "standard_potential": -0.762, "activation_energy": 3e4 } ] })";
+    expect_config_error(bare + " }", "$.reactions", "give every reaction its species, or the thermoneutral voltage");
+    EXPECT_NO_THROW(parse_config(bare + R"(, "cell": { "thermoneutral_voltage": 2.3 } })"));
+    // With species everywhere, a thermoneutral voltage given as well is refused (two sources of one heat).
+    const std::string both = std::string(R"({ "technology": "custom", )") + kMinimalTail + ", " + kSpeciesReactions +
+                             R"(, "cell": { "thermoneutral_voltage": 2.2 } })";
+    expect_config_error(both, "$.reactions", "do not give it as well");
 }
 
 TEST(Config, LoadFile) {

@@ -311,13 +311,20 @@ TEST(Custom, LimitsWarningsAndErrors) {
 }
 
 TEST(Custom, CloneAndGivenThermoneutralVoltage) {
+    // A table whose reactions give no species takes the thermoneutral voltage given; one with species
+    // computes it and refuses a given value as well (two sources of the same heat).
     auto spec = zinc_cell();
     spec.thermoneutral_voltage = 2.05;  // invented demo value
+    expect_error([&] { make_custom_cell(spec); }, ErrorKind::invalid_argument, "do not give it as well");
+    for (auto* side : {&spec.anode, &spec.cathode})
+        for (auto& h : *side) h.species.clear();
     auto cell = make_custom_cell(spec);
     auto copy = cell->clone();
     const auto a = cell->evaluate(point(400.0)), b = copy->evaluate(point(400.0));
     EXPECT_EQ(a.voltage, b.voltage);
     EXPECT_EQ(a.thermoneutral_voltage, 2.05);
+    EXPECT_TRUE(a.heat_from_thermoneutral_voltage);
+    EXPECT_FALSE(make_custom_cell(zinc_cell())->evaluate(point(400.0)).heat_from_thermoneutral_voltage);
 }
 
 TEST(Custom, EvaluateDoesNotAllocate) {

@@ -3,7 +3,8 @@
 
     PYTHONPATH=build/adapters/python /usr/bin/python3 tests/python/benchmark.py [--points 2000000]
 
-Prints: the cost of one call (get, solve, a one-point batch) against the bare ctypes call; the
+Prints: the cost of one call (get, solve, a one-point batch) against the bare ctypes call; a fit
+of six parameters to 100 points against ely_block_fit called through bare ctypes; the
 cost per point of a large batch against the library's own batch called directly through
 ctypes (the difference is what the package adds: building the input matrix and the result);
 and the speed-up of elyblock.distributed.batch on a LocalCluster of 2 worker processes over a
@@ -79,6 +80,7 @@ def main():
     c = elyblock.Block(DEMO_PLANT)
     report("b.batch(1 point) on a block with inputs set since its solve",
            best(lambda: (c.__setitem__("in.temperature", 340.0), c.batch(one, outputs, progress=False)), number=2_000))
+    fit_timings()
 
     n = args.points
     rng = np.random.default_rng(1)
@@ -108,6 +110,52 @@ def main():
             threads = best(lambda: two_threads(b, inputs, outputs, spec), repeat=3)
             print(f"  {label:<34} local {local[0]:.3f} s, 2 workers {spread[0]:.3f} s, speed-up "
                   f"{local[0] / spread[0]:.2f} (2 local threads, each a clone on half: {local[0] / threads[0]:.2f})")
+
+
+# The fit of tests/benchmarks/bench_calibration.cpp: six cell parameters, 100 points at four
+# temperatures, 2 mV of scatter (invented for the benchmark), start values 10 % off.
+FIT_PLANT = {"technology": "pem", "stack": {"cells": 100, "active_area": 0.1},
+             "cell": {"cathode_exchange_current_density": 30, "h2_recombination_fraction_anode": 0.9},
+             "operating": {"spec": "current_density", "temperature": 353.15}}
+FIT_FREE = ["anode_exchange_current_density", "anode_transfer_coefficient_forward", "anode_activation_energy",
+            "contact_resistance", "membrane_water_content", "cathode_exchange_current_density"]
+
+
+def fit_timings():
+    """Block.fit against ely_block_fit through bare ctypes on the same arrays: both start from a
+    clone of the same block (its cost is in both), so the difference is what the package adds
+    (data preparation, names, options, the report and the plant read back, the result object)."""
+    truth = elyblock.Block(FIT_PLANT)
+    j = np.tile(np.linspace(5000.0, 20000.0, 25), 4)
+    t = np.repeat([323.15, 338.15, 353.15, 363.15], 25)
+    v = truth.batch({"in.current_density": j, "in.temperature": t}, ["cell.voltage"])["cell.voltage"]
+    v = v + np.random.default_rng(11).normal(0.0, 0.002, v.size)
+    start = truth.clone()
+    for name in FIT_FREE:
+        start[f"param.cell.{name}"] = 1.1 * start[f"param.cell.{name}"]
+    data = {"in.current_density": j, "in.temperature": t, "cell.voltage": v}
+    inputs = np.ascontiguousarray(np.column_stack([j, t]))
+    measured = np.ascontiguousarray(v[:, None])
+    in_idx = np.array([start._index("in.current_density"), start._index("in.temperature")], dtype=np.int32)
+    out_idx = np.array([start._index("cell.voltage")], dtype=np.int32)
+    names = (ctypes.c_char_p * len(FIT_FREE))(*[n.encode() for n in FIT_FREE])
+    none = _capi.PROGRESS()
+
+    def bare():
+        b = start.clone()
+        result = ctypes.c_void_p()
+        status = _capi.lib.ely_block_fit(b._handle, len(j), 2, in_idx.ctypes.data, inputs.ctypes.data, 1,
+                                         out_idx.ctypes.data, measured.ctypes.data, None, len(FIT_FREE), names, None,
+                                         none, None, ctypes.byref(result))
+        assert status >= 0, _capi.last_error()
+        _capi.lib.ely_fit_destroy(result)
+
+    print("fit, 6 parameters, 100 points (the problem of bench_calibration):")
+    raw = best(bare, repeat=7)
+    mine = best(lambda: start.clone().fit(data, FIT_FREE, progress=False), repeat=7)
+    report("bare ctypes ely_block_fit", raw, unit="s")
+    report("Block.fit (dict of arrays, result with report and plant)", mine, unit="s")
+    print(f"  {'package overhead per fit':<58} {(mine[0] - raw[0]) * 1e3:10.3f} ms")
 
 
 def two_threads(block, inputs, outputs, spec):

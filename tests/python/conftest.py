@@ -108,6 +108,33 @@ class Reference:
         values = {o: np.array([float.fromhex(r[1 + i]) for r in rows]) for i, o in enumerate(outputs)}
         return status, point_status, values
 
+    def fit(self, inputs, measured, free, weights=None, bounds=None):
+        """The C fit (ely_block_fit) on the current block: inputs and measured dicts of equally long
+        1-D arrays (NaN: not measured), weights a dict by measured name (default 1), bounds a dict
+        {name: (low, high)} in SI (NaN: the variable's limit). Returns (status, [(value, standard
+        error)], report, plant) or (status, message) on an error."""
+        names, outputs = list(inputs), list(measured)
+        columns = [np.asarray(inputs[n], dtype=float).ravel() for n in names]
+        values = [np.asarray(measured[o], dtype=float).ravel() for o in outputs]
+        n = len(values[0])
+        w = [np.broadcast_to(np.asarray((weights or {}).get(o, 1.0), dtype=float), (n,)) for o in outputs]
+        limits = [(bounds or {}).get(f, (np.nan, np.nan)) for f in free]
+        lines = [f"fit {n} {len(names)} {len(outputs)} {len(free)}", " ".join(names), " ".join(outputs), " ".join(free),
+                 " ".join(float(b[0]).hex() for b in limits) + " " + " ".join(float(b[1]).hex() for b in limits)]
+        lines += [" ".join(float(c[k]).hex() for c in columns + values + w) for k in range(n)]
+        self.process.stdin.write("\n".join(lines) + "\n")
+        self.process.stdin.flush()
+        status, rest = self._reply()
+        if status < 0:
+            return status, rest
+        parameters = [tuple(float.fromhex(v) for v in self.process.stdout.readline().split()) for _ in free]
+        report, plant = self._json_line(), self._json_line()
+        return status, parameters, report, plant
+
+    def _json_line(self):
+        self.process.stdout.readline()  # the length
+        return json.loads(self.process.stdout.readline())
+
     def close(self):
         if self.process.poll() is None:
             self.process.stdin.write("quit\n")

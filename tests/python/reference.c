@@ -21,6 +21,13 @@
  *   batch NPOINTS NIN NOUT      followed by a line of NIN input names, a line of NOUT output
  *                               names and NPOINTS lines of NIN values
  *                               -> "status S", then NPOINTS lines "POINT_STATUS V1 ... VNOUT"
+ *   fit NPOINTS NIN NMEAS NFREE followed by a line of NIN input names, a line of NMEAS measured
+ *                               names, a line of NFREE free parameter names, a line of NFREE lower and
+ *                               NFREE upper bounds (nan: the variable's limit) and NPOINTS lines of
+ *                               NIN inputs, NMEAS measured values and NMEAS weights
+ *                               -> "status S", then NFREE lines "VALUE STANDARD_ERROR", then the
+ *                               report and the calibrated plant, each as "LENGTH" and the JSON
+ *                               on one line (its line breaks turned into spaces)
  *   quit
  *
  * A failed call answers "status S" followed by the library's message on the same line.
@@ -93,6 +100,80 @@ static void batch(size_t n_points, int32_t n_in, int32_t n_out) {
         }
     }
     free(in_idx); free(out_idx); free(in); free(out); free(st);
+}
+
+/* JSON text on one line: its line breaks are white space between tokens (JSON escapes those
+ * inside strings). */
+static void print_one_line(const char* text) {
+    printf("%zu\n", strlen(text) + 1);
+    for (const char* c = text; *c; ++c) putchar(*c == '\n' ? ' ' : *c);
+    putchar('\n');
+}
+
+static void print_fit_text(int32_t (*call)(const ely_fit*, char*, size_t, size_t*), const ely_fit* fit) {
+    size_t length = 0;
+    char* text = NULL;
+    if (call(fit, NULL, 0, &length) < 0 || !(text = malloc(length)) || call(fit, text, length, &length) < 0) {
+        printf("0\n\n");
+    } else {
+        print_one_line(text);
+    }
+    free(text);
+}
+
+static void fit(size_t n_points, int32_t n_in, int32_t n_meas, int32_t n_free) {
+    static char line[LINE];
+    int32_t* in_idx = calloc((size_t)n_in + 1, sizeof(int32_t));
+    int32_t* meas_idx = calloc((size_t)n_meas + 1, sizeof(int32_t));
+    double* in = calloc(n_points * (size_t)n_in + 1, sizeof(double));
+    double* meas = calloc(n_points * (size_t)n_meas + 1, sizeof(double));
+    double* weights = calloc(n_points * (size_t)n_meas + 1, sizeof(double));
+    double* bounds = calloc(2 * (size_t)n_free + 1, sizeof(double));
+    char** names = calloc((size_t)n_free + 1, sizeof(char*));
+    ely_fit* result = NULL;
+    ely_fit_options options;
+    int32_t status = ELY_OK;
+    if (!read_line(line)) status = ELY_ERR_INVALID_ARGUMENT;
+    if (status == ELY_OK) status = find_names(line, n_in, in_idx);
+    if (status == ELY_OK && !read_line(line)) status = ELY_ERR_INVALID_ARGUMENT;
+    if (status == ELY_OK) status = find_names(line, n_meas, meas_idx);
+    if (status == ELY_OK && !read_line(line)) status = ELY_ERR_INVALID_ARGUMENT;
+    if (status == ELY_OK) {
+        char* save = NULL;
+        char* token = strtok_r(line, " \t\r\n", &save);
+        for (int32_t f = 0; f < n_free && token; ++f, token = strtok_r(NULL, " \t\r\n", &save)) names[f] = strdup(token);
+    }
+    if (status == ELY_OK && read_line(line)) {
+        char* cursor = line;
+        for (int32_t f = 0; f < 2 * n_free; ++f) bounds[f] = strtod(cursor, &cursor);
+    }
+    for (size_t k = 0; k < n_points && status == ELY_OK; ++k) {
+        if (!read_line(line)) { status = ELY_ERR_INVALID_ARGUMENT; break; }
+        char* cursor = line;
+        for (int32_t i = 0; i < n_in; ++i) in[k * (size_t)n_in + (size_t)i] = strtod(cursor, &cursor);
+        for (int32_t o = 0; o < n_meas; ++o) meas[k * (size_t)n_meas + (size_t)o] = strtod(cursor, &cursor);
+        for (int32_t o = 0; o < n_meas; ++o) weights[k * (size_t)n_meas + (size_t)o] = strtod(cursor, &cursor);
+    }
+    memset(&options, 0, sizeof options);
+    options.struct_size = (uint32_t)sizeof options;
+    options.lower = bounds;
+    options.upper = bounds + n_free;
+    if (status == ELY_OK)
+        status = ely_block_fit(block, n_points, n_in, in_idx, in, n_meas, meas_idx, meas, weights, n_free,
+                               (const char* const*)names, &options, NULL, NULL, &result);
+    answer(status);
+    if (status >= 0) {
+        for (int32_t f = 0; f < n_free; ++f) {
+            double value = 0.0, standard_error = 0.0;
+            ely_fit_parameter(result, f, &value, &standard_error);
+            printf("%a %a\n", value, standard_error);
+        }
+        print_fit_text(ely_fit_report_json, result);
+        print_fit_text(ely_fit_plant_json, result);
+    }
+    ely_fit_destroy(result);
+    for (int32_t f = 0; f < n_free; ++f) free(names[f]);
+    free(names); free(bounds); free(weights); free(meas); free(in); free(meas_idx); free(in_idx);
 }
 
 static void report(void) {
@@ -182,6 +263,12 @@ int main(void) {
             const char* n_out = n_in ? strtok_r(NULL, " \t\r\n", &save) : NULL;
             if (!block || !n_out) answer(ELY_ERR_WRONG_STATE);
             else batch((size_t)strtoull(arg, NULL, 10), (int32_t)atoi(n_in), (int32_t)atoi(n_out));
+        } else if (strcmp(command, "fit") == 0 && arg) {
+            const char* n_in = strtok_r(NULL, " \t\r\n", &save);
+            const char* n_meas = n_in ? strtok_r(NULL, " \t\r\n", &save) : NULL;
+            const char* n_free = n_meas ? strtok_r(NULL, " \t\r\n", &save) : NULL;
+            if (!block || !n_free) answer(ELY_ERR_WRONG_STATE);
+            else fit((size_t)strtoull(arg, NULL, 10), (int32_t)atoi(n_in), (int32_t)atoi(n_meas), (int32_t)atoi(n_free));
         } else {
             printf("status %d unknown command\n", (int)ELY_ERR_INVALID_ARGUMENT);
         }

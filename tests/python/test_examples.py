@@ -75,3 +75,27 @@ def test_monte_carlo_locally_and_on_two_workers(tmp_path, reference):
     assert (status >= 0).all() and len(status) == running
     assert_same(a.loc[2, "hydrogen_t"], values["product.hydrogen"].sum() * 3600.0 / 1000.0)
     assert_same(a.loc[2, "energy_GWh"], values["plant.power"].sum() * 3600.0 / 3.6e12)
+
+
+def test_fit_curve(tmp_path, reference):
+    """The fit example: its calibrated plant is the C fit's on the data file it wrote (read by pandas
+    and converted by the library's units, as the example reads it)."""
+    out = run("fit_curve.py", "--output-dir", tmp_path, cwd=tmp_path)
+    assert "RMSE of the cell voltage" in out
+    for name in ("bench.csv", "fitted-plant.json", "fit.png", "fit.svg"):
+        assert (tmp_path / name).stat().st_size > 0, name
+    frame = pd.read_csv(tmp_path / "bench.csv", comment="#")
+    inputs = {"in.current_density": elyblock.convert_unit(frame["in.current_density [A/cm2]"], "A/cm2", "A/m2"),
+              "in.temperature": elyblock.convert_unit(frame["in.temperature [degC]"], "degC", "K")}
+    measured = {"cell.voltage": elyblock.convert_unit(frame["cell.voltage [mV]"], "mV", "V")}
+    example = load("fit_curve")
+    reference.create(DEMO_PLANT)
+    reference.spec("current_density")
+    status, parameters, report, plant = reference.fit(inputs, measured, [f"param.cell.{n}" for n in example.FREE])
+    assert status >= 0
+    assert json.loads((tmp_path / "fitted-plant.json").read_text()) == plant
+    # the bench's invented values lie within the reported 95 % intervals
+    start = elyblock.Block(DEMO_PLANT)
+    for p, name in zip(report["parameters"], example.FREE):
+        bench = start[f"param.cell.{name}"] * example.BENCH_FACTORS[name]
+        assert p["interval_95"][0] < bench < p["interval_95"][1], (name, bench, p["interval_95"])

@@ -74,7 +74,7 @@ def test_efficiency_lines_are_the_c_values(reference):
     figure = plots.efficiency(DEMO_PLANT, load)
     top, bottom = figure.axes
     b = elyblock.Block(DEMO_PLANT)
-    _, status, c = c_results(reference, DEMO_PLANT, {"in.current_density": load * b["param.current_density_max"]},
+    _, status, c = c_results(reference, DEMO_PLANT, {"in.current_density": load * b["param.limits.rated_current_density"]},
                              plots.EFFICIENCY_OUTPUTS)
     assert (status >= 0).all()
     x = c["perf.load_fraction"] * 100
@@ -121,3 +121,43 @@ def test_command_line_reports_a_bad_plant(tmp_path):
     run = subprocess.run([sys.executable, "-m", "elyblock.plots", "polarization", str(bad), "-o",
                           str(tmp_path / "x.png")], capture_output=True, text=True)
     assert run.returncode != 0 and "stack.cells" in run.stderr and not (tmp_path / "x.png").exists()
+
+
+def test_fit_plot_shows_the_measured_points_the_fitted_curves_and_the_residuals(reference, tmp_path):
+    """plots.fit: per temperature the measured points, the fitted model as a curve (the C batch of
+    the calibrated plant over the same grid) and the residuals in mV below."""
+    plant = {"technology": "pem", "stack": {"cells": 100, "active_area": 0.1},
+             "cell": {"h2_recombination_fraction_anode": 0.9}, "operating": {"spec": "current_density"}}
+    j = np.tile(np.linspace(6000.0, 20000.0, 5), 2)
+    t = np.repeat([333.15, 353.15], 5)
+    truth = elyblock.Block(plant).batch({"in.current_density": j, "in.temperature": t}, ["cell.voltage"])
+    measured = truth["cell.voltage"] + np.where(np.arange(10) % 2, 1e-3, -1e-3)  # test data: the model, with scatter
+    b = elyblock.Block(plant)
+    b["param.cell.contact_resistance"] = 1.5e-5
+    result = b.fit({"in.current_density": j, "in.temperature": t, "cell.voltage": measured}, ["contact_resistance"])
+    figure = plots.fit(result, points=30)
+    top, bottom = figure.axes
+    lines = top.get_lines()
+    assert len(lines) == 4  # measured and fitted, per temperature
+    path = tmp_path / "fitted.json"
+    result.save_plant(path)
+    reference.create(path)
+    for k, temperature in enumerate((333.15, 353.15)):
+        rows = t == temperature
+        points, curve = lines[2 * k], lines[2 * k + 1]
+        assert_same(points.get_xdata(), j[rows] / 1e4)
+        assert_same(points.get_ydata(), measured[rows])
+        grid = np.linspace(6000.0, 20000.0, 30)
+        _, status, c = reference.batch({"in.current_density": grid, "in.temperature": np.full(30, temperature)},
+                                       ["cell.voltage"])
+        assert (status >= 0).all()
+        assert_same(curve.get_xdata(), grid / 1e4)
+        assert_same(curve.get_ydata(), c["cell.voltage"])
+        assert curve.get_color() == points.get_color() and f"{temperature - 273.15:.4g} °C" in curve.get_label()
+        [residuals] = [line for line in bottom.get_lines() if len(line.get_xdata()) == 5][k:k + 1]
+        assert_same(residuals.get_ydata(), result.residuals["cell.voltage"][rows] * 1e3)
+    assert top.get_ylabel() == "cell.voltage [V]" and bottom.get_xlabel() == "in.current_density [A/cm²]"
+    assert "[mV]" in bottom.get_ylabel() and "contact_resistance" in top.get_title()
+    assert plots.save(figure, tmp_path / "fit") == [str(tmp_path / "fit.png"), str(tmp_path / "fit.svg")]
+    with pytest.raises(ValueError, match="'in.pressure_cathode' is not an input column"):
+        plots.fit(result, x="in.pressure_cathode")

@@ -91,7 +91,14 @@ ELY_API int32_t ely_water_electrolysis_voltages(double temperature_K, double pre
 ELY_API int32_t ely_molar_mass(const char* formula, double* kg_per_mol);
 
 /* ---- quantities with units --------------------------------------------------------- */
-/* Reads a quantity as the plant description takes it: "number unit" ("2 A/cm2", "80 degC",
+/* Two calls, one implementation (the plant description's unit parser and conversion):
+ * - ely_parse_quantity for text that carries its own unit, as a user types it ("2 A/cm2" in a
+ *   dialog, a spreadsheet cell, a command-line option), into the SI unit of a variable;
+ * - ely_convert_unit (below) for a number whose unit is known apart from it (a data file's
+ *   column header, a display unit of ely_variable_info), in either direction, degC included.
+ * Both give the same double for the same quantity.
+ *
+ * Reads a quantity as the plant description takes it: "number unit" ("2 A/cm2", "80 degC",
  * "30 bar", "1.5 MW", "25 %") or a bare number, which is taken as already in `unit`. *value
  * receives it in `unit`, a unit expression without offset: an SI unit such as
  * ely_variable_info.unit, or any unit of the same dimension ("kW"). Units and limits are those
@@ -196,7 +203,9 @@ ELY_API int32_t ely_block_solve(ely_block* block);
  * inputs input_indices[0..n_inputs) take inputs[k*n_inputs + i] (row-major), the block is
  * solved, and outputs[k*n_outputs + o] receives output_indices[o]; point_status[k] gets the
  * point's status (outputs of a failed point are NaN). Points are solved in order on one
- * working copy, each starting from the state the previous one left. Returns ELY_OK,
+ * working copy, each starting from the state the previous one left; a failed point returns the
+ * copy to the block's state at the start of the call (inputs, parameters and spec as set on
+ * the block, solved or not), not to the block's last successful solve. Returns ELY_OK,
  * ELY_WARNING (some point warned), ELY_PARTIAL (some point failed), ELY_ERR_CANCELLED (the
  * progress callback asked to stop, even at its last call; points not yet solved get
  * ELY_ERR_CANCELLED), or an error for bad arguments (nothing written). Arguments, checked
@@ -216,11 +225,14 @@ ELY_API int32_t ely_block_solve_batch(const ely_block* block, size_t n_points, i
 ELY_API int32_t ely_block_report_json(const ely_block* block, char* buffer, size_t capacity, size_t* length);
 
 /* ---- units ------------------------------------------------------------------------- */
-/* Converts value from one unit to another with the units a plant description accepts
+/* Converts a number from one unit to another with the units a plant description accepts
  * ("degC", "bar", "A/cm2", "ohm cm2", "kWh/kg", "%", ...; docs/config.md lists them):
- * e.g. 1.5 "A/cm2" to "A/m2" gives 15000. The dimensions must agree (ELY_ERR_INVALID_ARGUMENT
- * naming both units otherwise); a unit that does not parse is ELY_ERR_INVALID_ARGUMENT naming
- * it. degC is a temperature (offset 273.15 K), not a difference: "25 degC" to "K" is 298.15. */
+ * e.g. 1.5 "A/cm2" to "A/m2" gives 15000. For a number whose unit comes apart from it (a
+ * column header, a display unit); text with its own unit goes through ely_parse_quantity (see
+ * above: the same conversion). The dimensions must agree (ELY_ERR_INVALID_ARGUMENT naming both
+ * units otherwise); a unit that does not parse, a non-finite value or result is
+ * ELY_ERR_INVALID_ARGUMENT naming it. Either unit may be degC, a temperature (offset
+ * 273.15 K), not a difference: "25 degC" to "K" is 298.15, 353.15 "K" to "degC" is 80. */
 ELY_API int32_t ely_convert_unit(double value, const char* from_unit, const char* to_unit, double* result);
 
 /* ---- calibration -------------------------------------------------------------------
@@ -303,6 +315,13 @@ ELY_API int32_t ely_fit_plant_json(const ely_fit* fit, char* buffer, size_t capa
  * NaN when the data cannot give one). Either out-pointer may be NULL. */
 ELY_API int32_t ely_fit_parameter(const ely_fit* fit, int32_t k, double* value, double* standard_error);
 
+/* Measured variable o (0..n_measured-1, in the order given): the root mean square of its
+ * residuals, model - measured, unweighted, in the variable's SI unit (the report's "rmse"; NaN
+ * when it was measured at no row), and the number of rows where it was measured (a weight of
+ * 0 included). Either out-pointer may be NULL. For hosts that show a fit's quality without
+ * reading JSON. */
+ELY_API int32_t ely_fit_rmse(const ely_fit* fit, int32_t o, double* rmse, size_t* rows);
+
 ELY_API void ely_fit_destroy(ely_fit* fit); /* NULL is a no-op */
 
 /* ---- the block in time (dynamic runs) -------------------------------------------------
@@ -352,8 +371,9 @@ ELY_API int32_t ely_block_restore_state(ely_block* block, const void* buffer, si
  * inputs applied) and row_status[k] the row's status. The block is left running at the last row,
  * and ely_block_run_summary_json reports the profile. Returns ELY_OK, ELY_WARNING (some row
  * warned), ELY_PARTIAL (the run stopped at a row that failed: that row and those after it get its
- * status and NaN outputs; the block is left at the row before), the failing row's status when it is
- * the first, ELY_ERR_CANCELLED (the progress callback asked to stop, even at its last call; rows not
+ * status and NaN outputs; the block is left running where it stopped, at the last time it reached
+ * with the inputs in force there, its outputs valid), the failing row's status when it is the
+ * first, ELY_ERR_CANCELLED (the progress callback asked to stop, even at its last call; rows not
  * run get ELY_ERR_CANCELLED), or an error for bad arguments (nothing written, the block unchanged).
  * Arguments are checked as for ely_block_solve_batch, and the times before anything runs.
  * progress is called every 1024 rows and after the last; it may be NULL. */

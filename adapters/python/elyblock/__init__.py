@@ -5,6 +5,7 @@
     b.solve(current_density=2e4, temperature=353.15)
     b["cell.voltage"]
     curve = b.batch({"in.current_density": j}, ["cell.voltage", "product.hydrogen"])
+    result = b.fit(measured, free=["anode_exchange_current_density", "contact_resistance"])
 
 Submodules: ``elyblock.plots`` (matplotlib), ``elyblock.distributed`` (Dask). The library is
 found beside this package's install prefix (see ``elyblock._capi``); ``library_path`` says
@@ -15,6 +16,8 @@ from .block import Block, Variable, plant_text
 from .errors import (AbiMismatchError, BufferTooSmallError, CancelledError, ConfigError, ElyError, ElyWarning,
                      FileError, InfeasibleError, InternalError, InvalidArgumentError, NoConvergenceError,
                      OutOfMemoryError, OutOfRangeError, Status, UnknownNameError, WrongStateError)
+from .fit import FitResult
+from .units import convert_unit, parse_quantity
 from .water import water_electrolysis_voltages, water_saturation_pressure
 
 #: Version of this package (the project's version it was built with).
@@ -30,6 +33,7 @@ __all__ = [
     "Block", "Variable", "plant_text", "Status", "ElyError", "ElyWarning", "AbiMismatchError", "InvalidArgumentError",
     "OutOfRangeError", "ConfigError", "InfeasibleError", "NoConvergenceError", "UnknownNameError", "WrongStateError",
     "FileError", "BufferTooSmallError", "CancelledError", "OutOfMemoryError", "InternalError",
-    "water_saturation_pressure", "water_electrolysis_voltages", "__version__", "library_version", "abi_version",
+    "water_saturation_pressure", "water_electrolysis_voltages", "FitResult", "parse_quantity", "convert_unit",
+    "__version__", "library_version", "abi_version",
     "library_path",
 ]

@@ -71,6 +71,21 @@ class VariableInfo(ctypes.Structure):
         return self.variability != -1
 
 
+class FitOptions(ctypes.Structure):
+    """ely_fit_options (its first version)."""
+
+    _fields_ = [
+        ("struct_size", ctypes.c_uint32),
+        ("max_iterations", ctypes.c_int32),
+        ("tolerance", ctypes.c_double),
+        ("lower", ctypes.c_void_p),
+        ("upper", ctypes.c_void_p),
+        ("scales", ctypes.c_void_p),
+    ]
+
+
+FIT_SCALES = {"auto": 0, "linear": 1, "log": 2}  # ELY_FIT_SCALE_*
+
 PROGRESS = ctypes.CFUNCTYPE(ctypes.c_int32, ctypes.c_size_t, ctypes.c_size_t, ctypes.c_void_p)
 
 _c_int32_p = ctypes.POINTER(ctypes.c_int32)
@@ -104,8 +119,23 @@ _PROTOTYPES = {
                                                ctypes.c_void_p, PROGRESS, ctypes.c_void_p]),
     "ely_block_report_json": (ctypes.c_int32, [_handle, ctypes.c_char_p, ctypes.c_size_t,
                                                ctypes.POINTER(ctypes.c_size_t)]),
+    "ely_parse_quantity": (ctypes.c_int32, [ctypes.c_char_p, ctypes.c_char_p, _c_double_p]),
+    "ely_convert_unit": (ctypes.c_int32, [ctypes.c_double, ctypes.c_char_p, ctypes.c_char_p, _c_double_p]),
+    "ely_block_fit": (ctypes.c_int32, [_handle, ctypes.c_size_t, ctypes.c_int32, ctypes.c_void_p, ctypes.c_void_p,
+                                       ctypes.c_int32, ctypes.c_void_p, ctypes.c_void_p, ctypes.c_void_p,
+                                       ctypes.c_int32, ctypes.POINTER(ctypes.c_char_p), ctypes.POINTER(FitOptions),
+                                       PROGRESS, ctypes.c_void_p, _handle_p]),
+    "ely_fit_report_json": (ctypes.c_int32, [_handle, ctypes.c_char_p, ctypes.c_size_t,
+                                             ctypes.POINTER(ctypes.c_size_t)]),
+    "ely_fit_plant_json": (ctypes.c_int32, [_handle, ctypes.c_char_p, ctypes.c_size_t,
+                                            ctypes.POINTER(ctypes.c_size_t)]),
+    "ely_fit_parameter": (ctypes.c_int32, [_handle, ctypes.c_int32, _c_double_p, _c_double_p]),
+    "ely_fit_destroy": (None, [_handle]),
 }
-_OPTIONAL = {"ely_block_get_spec"}
+# Calls added after the first release of ABI 1: an older library lacks them, and the package
+# works without them (the features that need them say so).
+_OPTIONAL = {"ely_block_get_spec", "ely_parse_quantity", "ely_convert_unit", "ely_block_fit", "ely_fit_report_json",
+             "ely_fit_plant_json", "ely_fit_parameter", "ely_fit_destroy"}
 
 
 def _candidates():
@@ -177,6 +207,23 @@ def last_error():
 
 def status_text(status):
     return text(lib.ely_status_text(int(status)))
+
+
+def require(name, feature):
+    """Raises NotImplementedError naming ``feature`` when the loaded library lacks the call ``name``."""
+    if not has(name):
+        raise NotImplementedError(f"{feature} needs {name}, which the loaded library {library_path} "
+                                  f"(version {library_version}) lacks; use a newer libelyblock")
+
+
+def buffer_text(call, handle):
+    """The text a call of the buffer protocol gives (ely_block_report_json and the like): asks
+    for the length, then fills a buffer of that size."""
+    length = ctypes.c_size_t()
+    check(call(handle, None, 0, ctypes.byref(length)))
+    buffer = ctypes.create_string_buffer(length.value)
+    check(call(handle, buffer, length.value, ctypes.byref(length)))
+    return buffer.value.decode("utf-8")
 
 
 def check(status):

@@ -1,8 +1,8 @@
-"""Progress and cancellation of long calls (batch now; profile runs and fits use the same).
+"""Progress and cancellation of long calls (batches and fits).
 
 A long C call takes a progress callback that it calls now and then (the batch every 1024
-points and after the last); a non-zero return cancels the call, which then returns
-ELY_ERR_CANCELLED. ``Monitor`` builds that callback from the caller's wish:
+points and after the last, the fit after every iteration); a non-zero return cancels the call,
+which then returns ELY_ERR_CANCELLED. ``Monitor`` builds that callback from the caller's wish:
 
 - ``progress=None`` (default): a tqdm bar on stderr when stderr is a terminal, shown only if
   the call lasts longer than half a second; nothing otherwise.
@@ -10,7 +10,7 @@ ELY_ERR_CANCELLED. ``Monitor`` builds that callback from the caller's wish:
 - ``progress=callable``: ``callable(done, total)`` is called instead of a bar; a true return
   value cancels the call (the caller then gets ``CancelledError`` with the partial result).
 
-Ctrl-C: while a call of CATCH_INTERRUPT_POINTS or more runs on the main thread with Python's
+Ctrl-C: while a batch of CATCH_INTERRUPT_POINTS or more (or any fit) runs on the main thread with Python's
 default SIGINT handler, the handler is replaced by one that only records the interrupt; the
 next progress call returns non-zero, the library stops, and KeyboardInterrupt is raised once
 the call has returned (so the library is never left in the middle of anything). A smaller call
@@ -32,12 +32,12 @@ CATCH_INTERRUPT_POINTS = 100_000
 NO_CALLBACK = _capi.PROGRESS()  # a NULL ely_progress_fn
 
 
-def _bar(total, description, delay):
+def _bar(total, description, delay, unit="pt"):
     try:
         from tqdm import tqdm
     except ImportError as e:  # python3-tqdm is missing
         raise ImportError("a progress bar needs tqdm (Debian: apt-get install python3-tqdm)") from e
-    return tqdm(total=total, desc=description, unit="pt", unit_scale=True, delay=delay, leave=False,
+    return tqdm(total=total, desc=description, unit=unit, unit_scale=True, delay=delay, leave=False,
                 file=sys.stderr)
 
 
@@ -51,7 +51,7 @@ def _stderr_is_terminal():
 class Monitor:
     """Context manager around one long C call; ``callback`` is what to pass to the library."""
 
-    def __init__(self, progress, total, description, catch_interrupt=True):
+    def __init__(self, progress, total, description, catch_interrupt=None, unit="pt"):
         self.user_function = progress if callable(progress) else None
         self.total = total
         self.description = description
@@ -63,14 +63,16 @@ class Monitor:
         self.cancelled_by_user = False
         self.error = None
         self._previous_handler = None
-        self._catch_interrupt = catch_interrupt and total >= CATCH_INTERRUPT_POINTS
+        # None: by size (a batch); True: always (a fit, whose iterations each take a whole batch).
+        self._catch_interrupt = total >= CATCH_INTERRUPT_POINTS if catch_interrupt is None else catch_interrupt
+        self.unit = unit
         needed = self.want_bar or self.user_function is not None or self._catch_interrupt
         self.callback = _capi.PROGRESS(self._on_progress) if needed else NO_CALLBACK
 
     def __enter__(self):
         if self.want_bar:
             try:
-                self.bar = _bar(self.total, self.description, self.bar_delay)
+                self.bar = _bar(self.total, self.description, self.bar_delay, self.unit)
             except ImportError:
                 if self.user_function is None and self.bar_delay > 0:  # the automatic bar is a nicety
                     self.bar = None

@@ -114,9 +114,6 @@ class Block:
         self._path = source if kind == "file" else None
         self._indices = {}
         self._variables = None
-        # Whether inputs or the spec were set since the last successful solve (or since create):
-        # then the library's rollback state is not the block's current state (see _run_batch).
-        self._dirty = False
         #: The message of the last solve's warning ("" when it raised none).
         self.warning = ""
         handle = ctypes.c_void_p()
@@ -139,7 +136,6 @@ class Block:
         block._text, block._path = like._text, like._path
         block._indices = dict(like._indices)
         block._variables = like._variables
-        block._dirty = like._dirty
         block.warning = like.warning
         return block
 
@@ -256,7 +252,6 @@ class Block:
     def __setitem__(self, name, value):
         with self._lock:
             _capi.check(lib.ely_block_set(self._live(), self._index(name), float(value)))
-            self._dirty = True
 
     def set(self, inputs=None, /, **keywords):
         """Sets inputs given as a mapping of names and/or keywords (``x`` for ``in.x``). All or
@@ -269,7 +264,6 @@ class Block:
                     name, index = self._input_index(key)
                     previous = self[name]
                     _capi.check(lib.ely_block_set(self._live(), index, float(value)))
-                    self._dirty = True
                     done.append((index, previous))
             except BaseException:
                 for index, previous in reversed(done):
@@ -293,7 +287,6 @@ class Block:
         "hydrogen_rate" or "voltage"."""
         with self._lock:
             _capi.check(lib.ely_block_set_spec(self._live(), str(spec).encode("utf-8")))
-            self._dirty = True
 
     def solve(self, inputs=None, /, *, spec=None, **keywords):
         """Sets the spec (if given) and the inputs (as ``set``), then solves the steady state.
@@ -306,7 +299,6 @@ class Block:
             if inputs or keywords:
                 self.set(inputs, **keywords)
             status = lib.ely_block_solve(self._live())
-            self._dirty = False  # solved, or rolled back to the last successful solve
             _capi.check(status)
             self.warning = _capi.last_error() if status == errors.Status.WARNING else ""
         if self.warning:
@@ -317,11 +309,37 @@ class Block:
         """The solved state as the library's JSON report, parsed: technology, spec, name and every
         variable with its value and unit."""
         with self._lock:
-            length = ctypes.c_size_t()
-            _capi.check(lib.ely_block_report_json(self._live(), None, 0, ctypes.byref(length)))
-            buffer = ctypes.create_string_buffer(length.value)
-            _capi.check(lib.ely_block_report_json(self._live(), buffer, length.value, ctypes.byref(length)))
-        return json.loads(buffer.value.decode("utf-8"), parse_constant=lambda c: math.nan)
+            text = _capi.buffer_text(lib.ely_block_report_json, self._live())
+        return json.loads(text, parse_constant=lambda c: math.nan)
+
+    # -- fit --
+    def fit(self, data, free, *, weights=None, bounds=None, scales=None, max_iterations=None, tolerance=None,
+            progress=None):
+        """Fits the tunable parameters ``free`` to measured ``data`` (``ely_block_fit``): weighted
+        least squares (Levenberg-Marquardt) within bounds, at the block's spec, starting from the
+        block's current values; afterwards the block holds the fitted values (its inputs and spec
+        unchanged; solve before reading outputs). Returns an ``elyblock.fit.FitResult``.
+
+        ``data``: a DataFrame, or a mapping of names to equally long arrays: input columns
+        (``in.current_density`` or ``current_density``, ``in.temperature``, ...), measured outputs
+        (``cell.voltage``; NaN where not measured) and optional ``weight:<output>`` columns; a
+        name may carry its unit in brackets (``"cell.voltage [mV]"``, ``"in.temperature [degC]"``),
+        else values are SI. ``free``: parameter names, keys of the cell object
+        (``"anode_exchange_current_density"``) or variable names (``"param.cell.contact_resistance"``).
+        ``weights``: {output: weights per point, or one number} (1/sigma² in SI; only ratios
+        matter). ``bounds``: {parameter: (low, high)}, each a number (SI), a quantity text
+        (``"0.05 ohm cm2"``) or None for the variable's own limit. ``scales``: {parameter: "auto",
+        "linear" or "log"}. ``max_iterations`` (default 200), ``tolerance`` (default 1e-10).
+        ``progress``: as ``batch`` (a bar counts iterations; Ctrl-C or a callable returning true
+        cancels: ``CancelledError``, the block unchanged).
+
+        A fit that succeeds with warnings (parameters the data cannot separate, a value at a
+        bound) issues an ``ElyWarning``; the result lists them in ``warnings``. Errors (a row that
+        does not solve at the start values, a parameter the data do not depend on, ...) raise with
+        the library's message and leave the block unchanged."""
+        from .fit import fit
+        return fit(self, data, free, weights=weights, bounds=bounds, scales=scales, max_iterations=max_iterations,
+                   tolerance=tolerance, progress=progress)
 
     # -- batch --
     def batch(self, inputs, outputs, *, spec=None, with_status=False, progress=None):
@@ -349,14 +367,9 @@ class Block:
         return result
 
     def _run_batch(self, table, outputs, spec=None, progress=False):
-        """The C batch on a prepared table: (values, point statuses, call status, message).
-
-        The library rolls a failed point back to the last successful solve of the block it was
-        given, which is not the block's current state when inputs or the spec were set after that
-        solve: the points after such a failure would then run with the old inputs and spec. So the
-        batch goes to the library as is only when the block is "clean" (solved, or just created, at
-        its current state, with the spec asked for); otherwise it runs on a copy anchored first by
-        a successful solve at the state the batch starts from (``_anchored_copy``)."""
+        """The C batch on a prepared table: (values, point statuses, call status, message). A
+        batch at another spec runs on a copy of the block with that spec (the library's batch
+        starts every point from the state of the block it is given, set or solved)."""
         with self._lock:
             resolved = [self._input_index(name) for name in table.names]
             unique([name for name, _ in resolved], "inputs")
@@ -366,63 +379,18 @@ class Block:
             values = np.empty((n, len(outputs)), dtype=np.float64)
             status = np.empty(n, dtype=np.int32)
             matrix = np.ascontiguousarray(table.matrix, dtype=np.float64)
-            spec = None if spec is None or spec == self.spec else spec
-            work, first, leading = self, 0, None
-            if spec is not None or (self._dirty and n > 0):
-                # The library checks every name and index before it solves anything: ask it on no points.
-                call_status, message = _call_batch(self, in_idx, matrix[:0], out_idx, values[:0], status[:0])
-                if call_status < 0:
-                    raise errors.error_for(call_status, message)
-                work, first, leading = self._anchored_copy(spec, in_idx, matrix, out_idx, values, status)
-            with _progress.Monitor(progress, n - first, "batch") as monitor:
-                call_status, message = _call_batch(work, in_idx, matrix[first:], out_idx, values[first:],
-                                                   status[first:], monitor.callback)
+            work = self
+            if spec is not None and spec != self.spec:
+                work = self.clone()
+                work.set_spec(spec)
+            with _progress.Monitor(progress, n, "batch") as monitor:
+                call_status, message = _call_batch(work, in_idx, matrix, out_idx, values, status, monitor.callback)
         if call_status < 0 and call_status != errors.Status.CANCELLED:
             raise errors.error_for(call_status, message)
         monitor.reraise()
-        if first > 0 and call_status != errors.Status.CANCELLED:
-            call_status = max(call_status, errors.Status.WARNING) if np.any(status[:first] > 0) else call_status
-            if leading is not None:
-                call_status, message = errors.Status.PARTIAL, leading
-            elif call_status == errors.Status.PARTIAL:
-                message += f" (points counted from point {first})"
         if call_status == errors.Status.PARTIAL:
             message = failure_message(status, message)
         return values, status, errors.Status(call_status), message
-
-    def _anchored_copy(self, spec, in_idx, matrix, out_idx, values, status):
-        """A copy of this block (with ``spec`` set) whose last successful solve is the state the
-        batch starts from: the copy is solved at the current inputs. If that fails, the batch's
-        first rows are solved one by one, each on a fresh copy, until one succeeds; their results
-        are filled in. Returns the copy for the library's batch, the first row it has to solve,
-        and the message of the first failed row (None if none failed)."""
-        prepared = self.clone()
-        if spec is not None:
-            prepared.set_spec(spec)
-        probe = prepared.clone()
-        if lib.ely_block_solve(probe._live()) >= 0:
-            return probe, 0, None
-        leading = None
-        for k in range(len(matrix)):
-            probe = prepared.clone()
-            point = errors.Status.OK
-            for i, index in enumerate(in_idx):
-                point = lib.ely_block_set(probe._live(), int(index), float(matrix[k, i]))
-                if point < 0:
-                    break
-            if point >= 0:
-                point = lib.ely_block_solve(probe._live())
-            status[k] = point
-            if point < 0:
-                values[k] = np.nan
-                leading = leading or f"some points failed; first: point {k}: {_capi.last_error()}"
-                continue
-            for o, index in enumerate(out_idx):
-                value = ctypes.c_double()
-                _capi.check(lib.ely_block_get(probe._live(), int(index), ctypes.byref(value)))
-                values[k, o] = value.value
-            return probe, k + 1, leading
-        return probe, len(matrix), leading
 
 
 def _call_batch(work, in_idx, matrix, out_idx, values, status, callback=None):

@@ -11,13 +11,16 @@ efficiency and load in %, specific energy in kWh/kg (1 kWh = 3.6 MJ exactly).
 From a shell: ``python3 -m elyblock.plots polarization PLANT.json -o curve.png -o curve.svg``
 (or ``efficiency``).
 
-Planned, when the library has profile runs and fits: the duration curve of a profile run and
-its temperature and purity traces (from the DataFrame ``Block.simulate`` returns), and a fit
-with its residuals (from ``Block.fit``'s result); they take those results, not a plant.
+``fit(result)`` draws a fit (``Block.fit``'s result, not a plant): the measured points, the
+calibrated model as curves and the residuals in a panel below.
+
+Planned, when the library has profile runs: the duration curve of a profile run and its
+temperature and purity traces (from the DataFrame ``Block.simulate`` returns).
 """
 import argparse
 import os
 import sys
+import textwrap
 import warnings
 
 import numpy as np
@@ -101,28 +104,116 @@ def polarization(plant, current_density=None, *, points=60, inputs=None, ax=None
 
 
 def efficiency(plant, load=None, *, points=40, inputs=None, axes=None, title=None):
-    """Efficiency (HHV and LHV, DC stack) and specific energy (DC stack and AC plant) against
-    load, the current density over the plant's maximum. ``load`` as fractions (default 5 % to
-    100 %); ``axes``: two axes to draw into (efficiency, specific energy)."""
+    """Efficiency (HHV and LHV, on DC power plus the heat supplied) and specific energy (DC stack
+    and AC plant) against load, the current density over the plant's rated current density.
+    ``load`` as fractions (default 5 % to 100 %); ``axes``: two axes to draw into (efficiency,
+    specific energy)."""
     block = _block(plant)
     if load is None:
         load = np.linspace(0.05, 1.0, points)
-    current_density = np.asarray(load, dtype=np.float64) * block["param.current_density_max"]
+    current_density = np.asarray(load, dtype=np.float64) * block["param.limits.rated_current_density"]
     r = _sweep(block, current_density, points, inputs, EFFICIENCY_OUTPUTS)
     top, bottom = _axes(axes, rows=2, size=(7.0, 6.5))
     x = r["perf.load_fraction"] * PERCENT
     top.plot(x, r["perf.efficiency_hhv"] * PERCENT, label="HHV basis")
     top.plot(x, r["perf.efficiency_lhv"] * PERCENT, label="LHV basis")
-    top.set_ylabel("efficiency, DC stack [%]")
+    top.set_ylabel("efficiency, DC + heat supplied [%]")
     bottom.plot(x, r["perf.specific_energy"] / J_PER_KWH, label="DC stack")
     bottom.plot(x, r["perf.specific_energy_plant"] / J_PER_KWH, label="AC plant")
     bottom.set_ylabel("specific energy [kWh/kg H₂]")
-    bottom.set_xlabel("load: current density / maximum [%]")
+    bottom.set_xlabel("load: current density / rated [%]")
     for a in (top, bottom):
         a.grid(alpha=0.3)
         a.legend(fontsize="small")
     top.set_title(title if title is not None else "efficiency and specific energy against load")
     return top.figure
+
+
+KELVIN = 273.15
+PA_PER_BAR = 1e5
+MV_PER_V = 1e3
+
+
+def _plot_scale(name, unit):
+    """(factor, offset, unit) of the fixed plot units: current density A/cm2, temperature degC,
+    pressure bar, voltage V; other quantities in their SI unit."""
+    if unit == "A/m2":
+        return 1.0 / A_PER_M2_IN_A_PER_CM2, 0.0, "A/cm²"
+    if unit == "K":
+        return 1.0, -KELVIN, "°C"
+    if unit == "Pa":
+        return 1.0 / PA_PER_BAR, 0.0, "bar"
+    return 1.0, 0.0, unit
+
+
+def _groups(inputs, others):
+    """Rows grouped by the values of the ``others`` input columns: [(values, row indices)]."""
+    if not others:
+        return [((), np.arange(len(inputs)))]
+    keys = inputs[:, others]
+    unique, inverse = np.unique(keys, axis=0, return_inverse=True)
+    return [(tuple(unique[g]), np.flatnonzero(inverse.ravel() == g)) for g in range(len(unique))]
+
+
+def fit(result, x="in.current_density", output=None, *, points=60, axes=None, title=None):
+    """A fit: the measured values of ``output`` (default cell.voltage when measured, else the first
+    measured variable) against the input ``x`` as points, the calibrated model as curves, and the
+    residuals (model - measured) in a panel below. Rows with different values of the other inputs
+    (temperatures, pressures) are drawn as separate series, each curve one batch of the fitted
+    block (``result.block()``) over that series' range of ``x`` at the fit's spec. ``axes``: two
+    axes to draw into (values, residuals). Voltages are drawn in V, their residuals in mV."""
+    data = result.data
+    if x not in data.input_names:
+        raise ValueError(f"fit plot: x '{x}' is not an input column of the fit's data ({', '.join(data.input_names)})")
+    if output is None:
+        output = "cell.voltage" if "cell.voltage" in data.measured_names else data.measured_names[0]
+    if output not in data.measured_names:
+        raise ValueError(f"fit plot: '{output}' was not measured ({', '.join(data.measured_names)})")
+    block = result.block()
+    units = {v.name: v.unit for v in block.variables()}
+    column = data.input_names.index(x)
+    others = [k for k in range(len(data.input_names)) if k != column]
+    o = data.measured_names.index(output)
+    x_scale, x_offset, x_unit = _plot_scale(x, units[x])
+    y_scale, y_offset, y_unit = _plot_scale(output, units[output])
+    r_scale, r_unit = (MV_PER_V, "mV") if units[output] == "V" else (y_scale, y_unit)
+    residuals = result._residuals[:, o]
+    top, bottom = _axes(axes, rows=2, size=(7.0, 6.5))
+    for values, rows in _groups(data.inputs, others):
+        label = ", ".join(_value_text(data.input_names[k], units[data.input_names[k]], v) for k, v in zip(others, values))
+        measured = ~np.isnan(data.measured[rows, o])
+        xs = data.inputs[rows, column]
+        points_artist, = top.plot(xs[measured] * x_scale + x_offset, data.measured[rows, o][measured] * y_scale + y_offset,
+                                  "o", markersize=4, label=f"measured{', ' + label if label else ''}")
+        color = points_artist.get_color()
+        grid = np.linspace(xs.min(), xs.max(), points)
+        curve_inputs = {x: grid}
+        curve_inputs.update({data.input_names[k]: v for k, v in zip(others, values)})
+        with warnings.catch_warnings():  # points that fail are left out of the curve
+            warnings.simplefilter("ignore", ElyWarning)
+            curve = block.batch(curve_inputs, [output], spec=result.spec, with_status=True, progress=False)
+        solved = curve["status"] >= 0
+        top.plot(grid[solved] * x_scale + x_offset, curve[output][solved] * y_scale + y_offset, "-", color=color,
+                 linewidth=1.4, label=f"fitted model{', ' + label if label else ''}")
+        bottom.plot(xs[measured] * x_scale + x_offset, residuals[rows][measured] * r_scale, "o", color=color,
+                    markersize=4)
+    bottom.axhline(0.0, color="black", linewidth=0.8)
+    top.set_ylabel(f"{output} [{y_unit}]")
+    bottom.set_ylabel(f"residual, model − measured [{r_unit}]")
+    bottom.set_xlabel(f"{x} [{x_unit}]")
+    for a in (top, bottom):
+        a.grid(alpha=0.3)
+    top.legend(fontsize="small")
+    rmse = result.rmse.get(output, np.nan) * r_scale
+    short = [n.split(".", 2)[-1] if n.startswith("param.cell.") else n.removeprefix("param.") for n in result.names]
+    default = "\n".join(textwrap.wrap(f"fitted: {', '.join(short)}", 70) + [f"RMSE of {output} {rmse:.3g} {r_unit}"])
+    top.set_title(title if title is not None else default, fontsize="medium")
+    return top.figure
+
+
+def _value_text(name, unit, value):
+    scale, offset, shown_unit = _plot_scale(name, unit)
+    return f"{name} {value * scale + offset:.4g} {shown_unit}"
 
 
 def save(figure, path, formats=("png", "svg"), dpi=150):

@@ -138,14 +138,17 @@ public:
         r.warnings = check_envelope(envelope_, p, "aem");
         const double t = p.temperature, j = p.current_density;
         const double a_w = water_activity(t);
-        if (start_liquid_water_cell(r, p, a_w)) return r;  // open circuit
+        if (start_liquid_water_cell(r, p, a_w)) {  // open circuit (hot standby): only the crossover
+            fill_water_cell_gases(r, 0.0, crossover(p, a_w), recombination_, p);
+            return r;
+        }
         r.concentration = concentration_overpotential(j, limiting_current_density_, t, 2);
         if (j > 0.95 * limiting_current_density_) r.warnings |= kWarnNearLimitingCurrent;
         r.activation_anode = activation_overpotential(anode_, tafel_, j, t);
         r.activation_cathode = activation_overpotential(cathode_, tafel_, j, t);
         r.ohmic = j * (thickness_ / conductivity(t) + contact_resistance_);
         r.voltage = r.reversible_voltage + r.activation_anode + r.activation_cathode + r.ohmic + r.concentration;
-        fill_water_cell_gases(r, j, crossover(p, a_w), recombination_, "aem", p);
+        fill_water_cell_gases(r, j, crossover(p, a_w), recombination_, p);
         return r;
     }
 

@@ -205,13 +205,13 @@ public:
         r.thermoneutral_voltage = thermoneutral_voltage_hhv(t);
         r.gases_saturated = true;
         r.water_activity_anode = r.water_activity_cathode = a_w;
-        if (j == 0.0) {  // open circuit: no gas produced, crossover not described by the steady model
+        const CrossoverFluxes x = crossover(p, a_w);
+        if (j == 0.0) {  // open circuit (hot standby): no gas made, the separator still passes hydrogen
             r.voltage = r.reversible_voltage;
-            r.faraday_efficiency = 0.0;
+            fill_water_cell_gases(r, 0.0, x, recombination_, p);
             return r;
         }
 
-        const CrossoverFluxes x = crossover(p, a_w);
         const double h2_lost = x.hydrogen + 2.0 * recombination_.oxygen_at_cathode * x.oxygen;
 
         // Electrode current density: the terminal current less bypass currents that make no gas.
@@ -240,7 +240,12 @@ public:
             }
             j_losses = j_e;
         }
-        fill_water_cell_gases(r, j_e, x, recombination_, "alkaline", p);
+        if (!(j_e > 0.0))
+            throw Error(ErrorKind::out_of_range,
+                        fmt::format("alkaline cell: at {:g} A/m2 the shunt currents would carry the whole current "
+                                    "({:g} K); raise the current density or lower the shunt model's share",
+                                    j, t));
+        fill_water_cell_gases(r, j_e, x, recombination_, p);
         const Losses losses = compute_losses(j_losses, t, sigma);
         if (j_losses > 0.95 * limiting_current_density_) r.warnings |= kWarnNearLimitingCurrent;
         r.activation_anode = losses.activation_anode;

@@ -56,6 +56,14 @@ public:
     void fill_own_outputs(const CellResult& r, const PlantFlows& flows, double* values) const override {
         fill_brine_loop(r, flows, s_.feed_nacl_molality, values);
     }
+    // The brine loop as solutions for the energy balance (their heats of mixing).
+    void solution_streams(const CellResult& r, const PlantFlows& flows, SolutionStreams& out) const override {
+        const BrineLoopFlows loop = brine_loop_flows(r, flows, s_.feed_nacl_molality);
+        const double feed = loop.feed_water / molar_mass::H2O, depleted = loop.depleted_water / molar_mass::H2O;
+        out.streams[0] = {AqueousSalt::sodium_chloride, feed, loop.feed_water * loop.feed_molality, true};
+        out.streams[1] = {AqueousSalt::sodium_chloride, depleted, loop.depleted_water * loop.depleted_molality, false};
+        out.count = 2;
+    }
 
 private:
     double area_specific_resistance(double temperature) const;

@@ -30,15 +30,19 @@ const std::vector<VariableInfo>& brine_loop_outputs() {
     return outputs;
 }
 
-void fill_brine_loop(const CellResult& c, const PlantFlows& f, double m_in, double* values) {
+BrineLoopFlows brine_loop_flows(const CellResult& c, const PlantFlows& f, double m_in) {
     const double m_out = c.anolyte_nacl_molality;
     const double formed = 2.0 * f.cathode[kH2] - f.consumed[kH2O];
     const double water_out_kg = (f.drag + f.anode_vapour - formed) * molar_mass::H2O;  // kg/s
     const double feed_water_kg = (f.consumed[kNaCl] - m_out * water_out_kg) / (m_in - m_out);
-    const double depleted_water_kg = feed_water_kg - water_out_kg;
-    values[0] = feed_water_kg * (1.0 + m_in * molar_mass::NaCl);
-    values[1] = depleted_water_kg * (1.0 + m_out * molar_mass::NaCl);
-    values[2] = mass_fraction_from_molality(m_out, molar_mass::NaCl);
+    return {feed_water_kg, m_in, feed_water_kg - water_out_kg, m_out};
+}
+
+void fill_brine_loop(const CellResult& c, const PlantFlows& f, double m_in, double* values) {
+    const BrineLoopFlows loop = brine_loop_flows(c, f, m_in);
+    values[0] = loop.feed_water * (1.0 + loop.feed_molality * molar_mass::NaCl);
+    values[1] = loop.depleted_water * (1.0 + loop.depleted_molality * molar_mass::NaCl);
+    values[2] = mass_fraction_from_molality(loop.depleted_molality, molar_mass::NaCl);
 }
 
 }  // namespace ely

@@ -19,4 +19,11 @@ const std::vector<VariableInfo>& brine_loop_outputs();
 ///          − water formed at the anode by the back-migrated hydroxide (2·H2 made − water consumed).
 void fill_brine_loop(const CellResult& result, const PlantFlows& flows, double feed_molality, double* values);
 
+/// The same balances as plant totals, kg/s of water with their molalities (mol/kg of water).
+struct BrineLoopFlows {
+    double feed_water, feed_molality;          // resaturated brine fed to the anolyte
+    double depleted_water, depleted_molality;  // depleted brine leaving it
+};
+BrineLoopFlows brine_loop_flows(const CellResult& result, const PlantFlows& flows, double feed_molality);
+
 }  // namespace ely

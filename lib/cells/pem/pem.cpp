@@ -140,9 +140,9 @@ public:
         r.thermoneutral_voltage = thermoneutral_voltage_hhv(t);
         r.gases_saturated = true;
         r.water_activity_anode = r.water_activity_cathode = 1.0;
-        if (j == 0.0) {  // open circuit: no gas produced, crossover not described by the steady model
+        if (j == 0.0) {  // open circuit (hot standby): no gas made, the membrane still passes hydrogen
             r.voltage = r.reversible_voltage;
-            r.faraday_efficiency = 0.0;
+            fill_water_cell_gases(r, 0.0, crossover(p), recombination_, p);
             return r;
         }
 
@@ -154,7 +154,7 @@ public:
         r.ohmic = j * (thickness_ / sigma + contact_resistance_);
         r.voltage = r.reversible_voltage + r.activation_anode + r.activation_cathode + r.ohmic + r.concentration;
 
-        fill_water_cell_gases(r, j, crossover(p), recombination_, "pem", p);
+        fill_water_cell_gases(r, j, crossover(p), recombination_, p);
         r.water_drag = drag_ * j / kFaraday;
         return r;
     }

@@ -33,6 +33,8 @@ namespace ely {
 namespace {
 
 constexpr double kReferenceTemperature = 1073.15;  // K (800 °C), where j0, ASR and diffusivity are given
+// Oxygen in dry air, mol/mol: 20.946 % (U.S. Standard Atmosphere 1976; argon counted with the nitrogen).
+constexpr double kAirOxygenFraction = 0.20946;
 
 const std::vector<ParameterInfo> kSolidOxideParameters = {
     {"steam_inlet_fraction", "1", 0.9, 0.05, 1.0, "steam mole fraction of the cathode inlet, the rest hydrogen",
@@ -78,8 +80,9 @@ const std::vector<ParameterInfo> kSolidOxideParameters = {
     {"cathode_support_thickness", "m", 400e-6, 1e-6, 5e-3, "diffusion length of the cathode (support) layer",
      "typical value, from memory (cathode-supported cells)"},
     {"oxygen_electrode_o2_fraction", "1", 1.0, 0.01, 1.0,
-     "mean oxygen mole fraction of the gas at the oxygen electrode: 1 = pure oxygen (no sweep), about 0.21-0.3 with an "
-     "air sweep enriched by the oxygen made",
+     "mean oxygen mole fraction of the gas at the oxygen electrode: 1 = pure oxygen (no sweep); with an air sweep "
+     "enriched by the oxygen made, the mean of the inlet (air) and outlet fractions, above 0.20946 and at most 0.605 "
+     "(the sweep air flow follows from it and leaves with the oxygen)",
      "pure oxygen: the anode delivers oxygen as a product (model choice); set an air sweep here"},
     {"electronic_leakage_fraction", "1", 0.0, 0.0, 0.5,
      "fraction of the current carried by electrons through the electrolyte (produces no gas)",
@@ -105,6 +108,19 @@ public:
         x_steam_mean_ = x_steam_in_ * (1.0 - 0.5 * utilisation_);
         x_h2_mean_ = 1.0 - x_steam_mean_;
         x_steam_out_ = x_steam_in_ * (1.0 - utilisation_);
+        // An air sweep whose oxygen fraction is the arithmetic mean of air at the inlet and x_out at the
+        // outlet: (air x_a + O2 made)/(air + O2 made) = x_out = 2 x_mean − x_a, i.e. air per O2 made =
+        // (1 − x_out)/(x_out − x_a). Air reaches only means between its own fraction and (1 + x_a)/2.
+        if (x_o2_ < 1.0) {
+            const double x_out = 2.0 * x_o2_ - kAirOxygenFraction;
+            if (!(x_o2_ > kAirOxygenFraction && x_out <= 1.0))
+                throw Error(ErrorKind::invalid_argument,
+                            fmt::format("oxygen_electrode_o2_fraction {:g}: an air sweep gives mean oxygen fractions "
+                                        "above air's {:g} and at most {:g} (the mean of air and pure oxygen); 1 = no "
+                                        "sweep",
+                                        x_o2_, kAirOxygenFraction, 0.5 * (1.0 + kAirOxygenFraction)));
+            sweep_per_oxygen_ = (1.0 - x_out) / (x_out - kAirOxygenFraction);
+        }
     }
 
     const Envelope& envelope() const override { return envelope_; }
@@ -157,6 +173,7 @@ public:
         r.cathode_out[kH2] = reacted;
         r.anode_out[kO2] = j_ion / (4.0 * kFaraday);
         r.cathode_out[kH2O] = reacted * (1.0 / utilisation_ - 1.0);  // unreacted steam
+        r.oxygen_electrode_sweep = sweep_per_oxygen_;
         return r;
     }
 
@@ -168,6 +185,7 @@ private:
     bool tafel_;
     double diffusivity_, support_thickness_, x_o2_, leakage_;
     double x_steam_mean_ = 0, x_h2_mean_ = 0, x_steam_out_ = 0;
+    double sweep_per_oxygen_ = 0;  // mol of sweep air per mol of O2 made
 };
 
 }  // namespace
