@@ -357,6 +357,8 @@ Status Instance::ensure_outputs(const char* function, const ely_block** from) {
 }
 
 Status Instance::get_float64(const char* function, const uint32_t vr[], std::size_t n, double values[]) {
+    // Both standards allow reading from Initialization Mode on (FMI 2: not in the instantiated state).
+    if (!allowed(function, kInitialization | kStep | kStepFailed | kTerminated)) return Status::error;
     if (n == 0) return Status::ok;
     if (!vr || !values) return bad_argument(function, "valueReferences or values is NULL");
     const ely_block* outputs_from = nullptr;
@@ -369,7 +371,6 @@ Status Instance::get_float64(const char* function, const uint32_t vr[], std::siz
         if (!v) return bad_argument(function, "no Float64 variable has value reference " + std::to_string(vr[k]));
         const ely_block* from = block_;
         if (v->causality == Causality::output) {
-            if (!allowed(function, kInitialization | kStep | kStepFailed | kTerminated)) return Status::error;
             if (!outputs_from) {
                 const Status s = ensure_outputs(function, &outputs_from);
                 if (s != Status::ok) return s;
