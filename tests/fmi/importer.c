@@ -130,6 +130,7 @@ typedef __typeof__(fmi2Terminate) fmi2TerminateTYPE_2;
 typedef __typeof__(fmi2Reset) fmi2ResetTYPE_2;
 typedef __typeof__(fmi2SetDebugLogging) fmi2SetDebugLoggingTYPE_2;
 typedef __typeof__(fmi2GetRealStatus) fmi2GetRealStatusTYPE_2;
+typedef __typeof__(fmi2GetBooleanStatus) fmi2GetBooleanStatusTYPE_2;
 typedef __typeof__(fmi2GetDirectionalDerivative) fmi2GetDirectionalDerivativeTYPE_2;
 typedef __typeof__(fmi2GetInteger) fmi2GetIntegerTYPE_2;
 typedef __typeof__(fmi2GetVersion) fmi2GetVersionTYPE_2;
@@ -512,6 +513,15 @@ int main(int argc, char** argv) {
     check(s == DISCARD && last_successful == ta, "a step the model refuses is discarded at its start");
     check(get(a, "stack.temperature", &value) == OK && value == again[N_STEPS - 1][1],
           "... and the FMU is as before the step");
+    if (version == 2) {
+        fmi2Boolean terminated = fmi2True;
+        check(do_step(a, ta, 1) == ERROR && strstr(last_log, "after a discarded step") != NULL,
+              "FMI 2: no step after a discarded one (stepFailed)");
+        check(F2(fmi2GetBooleanStatus)(a, fmi2Terminated, &terminated) == fmi2OK && terminated == fmi2False,
+              "FMI 2: fmi2Terminated status is false");
+    } else {
+        check(do_step(a, ta, 1) == OK, "FMI 3: Step Mode goes on after a discarded step");
+    }
 
     /* Use after free: refused without a crash. */
     free_instance(a);
