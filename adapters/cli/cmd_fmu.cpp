@@ -15,6 +15,7 @@
 #include "errors.hpp"
 #include "output.hpp"
 #include "package.hpp"
+#include "variables.hpp"
 
 #ifndef ELY_FMU_INSTALL_RELATIVE
 #define ELY_FMU_INSTALL_RELATIVE "../lib/elyblock"
@@ -61,6 +62,10 @@ std::string find_binary(const FmuOptions& o) {
 }
 
 int run(const FmuOptions& o) {
+    if (!o.model_identifier.empty() && elyfmi::model_identifier_from(o.model_identifier) != o.model_identifier)
+        throw UsageError{"--model-identifier: " + o.model_identifier +
+                             " is not a C identifier (letters, digits and '_', not starting with a digit)",
+                         ""};
     elyfmi::PackageOptions p;
     p.fmi_version = o.fmi;
     p.plant_path = o.config;

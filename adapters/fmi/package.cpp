@@ -97,7 +97,7 @@ std::string package_fmu(const PackageOptions& o) {
     if (!a || archive_write_set_format_zip(a.get()) != ARCHIVE_OK)
         throw std::runtime_error("libarchive cannot write zip archives");
     if (archive_write_open_filename(a.get(), partial.c_str()) != ARCHIVE_OK)
-        throw std::runtime_error("cannot write " + partial.string() + ": " + archive_error_string(a.get()));
+        throw std::runtime_error("cannot write " + output.string() + ": " + archive_error_string(a.get()));
     const std::time_t mtime = std::time(nullptr);
     try {
         add_entry(a.get(), "modelDescription.xml", xml, 0644, mtime);

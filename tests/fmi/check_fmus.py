@@ -10,6 +10,7 @@
                  ModelStructure, the token, value references pinned across versions
   every_example  every example plant packed as FMI 2 and FMI 3: rules and schema
   binary         ldd of the binaries (C runtime only) and their exports (exactly the standard's functions)
+  cli_errors     `elyblock fmu` refusing what it cannot pack, with the exit status and message, leaving no file
 
 Usage: check_fmus.py CASE ELYBLOCK_CLI SOURCE_DIR FMU_BUILD_DIR WORK_DIR SANITIZER
 """
@@ -310,7 +311,38 @@ def case_binary():
                                               f"missing {sorted(set(wanted) - set(exported))}"))
 
 
+def case_cli_errors():
+    shutil.rmtree(WORK, ignore_errors=True)
+    os.makedirs(WORK)
+    demo = os.path.join(SOURCE, "examples", "demo-plant.json")
+    bad_plant = os.path.join(WORK, "bad.json")
+    with open(bad_plant, "w") as f:
+        f.write('{"technology": "pem", "stack": {"cells": -4, "active_area": 0.1}, "operating": {"spec": "current_density"}}')
+
+    def fmu(*args):
+        return subprocess.run([CLI, "fmu", *args], capture_output=True, text=True)
+
+    cases = [
+        ((os.path.join(WORK, "missing.json"), "--fmi", "2", "--binaries", FMU_DIR), 1, "cannot read the plant description"),
+        ((bad_plant, "--fmi", "3", "--binaries", FMU_DIR, "--output", os.path.join(WORK, "bad.fmu")), 1, "$.stack.cells"),
+        ((demo, "--fmi", "4"), 2, "--fmi: 4 not in {2,3}"),
+        ((demo,), 2, "--fmi is required"),
+        ((demo, "--fmi", "2", "--binaries", os.path.join(WORK, "nowhere")), 1, "elyblock-fmi2.so is not in"),
+        ((demo, "--fmi", "2", "--binaries", FMU_DIR, "--model-identifier", "2bad-name"), 2,
+         "--model-identifier: 2bad-name is not a C identifier"),
+        ((demo, "--fmi", "2", "--binaries", FMU_DIR, "--output", os.path.join(WORK, "no", "such", "x.fmu")), 1,
+         "cannot write " + os.path.join(WORK, "no", "such", "x.fmu") + ":"),
+    ]
+    for args, status, text in cases:
+        p = fmu(*args)
+        expect(p.returncode == status and text in p.stderr and p.stdout == "",
+               f"elyblock fmu {' '.join(os.path.basename(a) for a in args)}: exit {status}, says '{text}' "
+               f"(got {p.returncode}: {p.stderr.strip()})")
+    left = [f for f in os.listdir(WORK) if f.endswith((".fmu", ".partial"))]
+    expect(not left, f"no FMU or partial file is left behind ({left})")
+
+
 {"layout": case_layout, "schema": case_schema, "rules": case_rules, "every_example": case_every_example,
- "binary": case_binary}[CASE]()
+ "binary": case_binary, "cli_errors": case_cli_errors}[CASE]()
 print(f"{len(failures)} failed")
 sys.exit(1 if failures else 0)
