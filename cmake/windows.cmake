@@ -7,9 +7,9 @@
 #   the programs import Windows system DLLs only.
 # - DLL names without the "lib" prefix, import libraries with it: elyblock.dll, libelyblock.dll.a.
 set(ELY_WINDOWS_HEADERS ${PROJECT_BINARY_DIR}/host-headers)
-foreach(dir boost fmt)
+foreach(dir boost fmt xsimd)
   if(NOT EXISTS /usr/include/${dir})
-    message(FATAL_ERROR "/usr/include/${dir} is missing: install libboost-json1.81-dev and libfmt-dev")
+    message(FATAL_ERROR "/usr/include/${dir} is missing: install libboost-json1.81-dev, libfmt-dev and libxsimd-dev")
   endif()
   file(MAKE_DIRECTORY ${ELY_WINDOWS_HEADERS})
   file(CREATE_LINK /usr/include/${dir} ${ELY_WINDOWS_HEADERS}/${dir} SYMBOLIC)

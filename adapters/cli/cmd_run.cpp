@@ -23,6 +23,7 @@
 #include "csv.hpp"
 #include "errors.hpp"
 #include "plant.hpp"
+#include "python_plot.hpp"
 #include "quantities.hpp"
 
 namespace elycli {
@@ -31,7 +32,7 @@ namespace {
 struct RunOptions {
     PlantOptions plant;
     std::string profile, output, units;
-    std::vector<std::string> columns;
+    std::vector<std::string> columns, plots;
     bool no_progress = false;
 };
 
@@ -174,6 +175,10 @@ const char* const kDefaultColumns[] = {"state.mode",       "stack.temperature", 
                                        "stack.power",      "plant.power",       "product.hydrogen",     "gas.h2_in_o2",
                                        "heat.to_coolant",  "alarm.any"};
 
+// What --plot draws (the Python package's RUN_OUTPUTS, elyblock/plots.py), after the series' columns.
+const char* const kPlotColumns[] = {"perf.load_fraction", "stack.power", "stack.temperature", "gas.h2_in_o2",
+                                    "gas.h2_in_o2_stack", "state.mode"};
+
 // A progress bar on standard error, drawn only on a terminal.
 struct Progress {
     bool on;
@@ -212,6 +217,37 @@ std::string summary_text(const std::string& json) {
     return out;
 }
 
+// The rows of the plotted columns in SI to a temporary CSV, drawn by the Python package with the
+// temperature setpoint and the H2-in-O2 alarm levels of the plant.
+void plot_run(const Block& block, const Profile& p, const std::vector<const Variable*>& plotted,
+              const std::vector<double>& values, std::size_t width, std::size_t first, const std::vector<std::string>& files) {
+    TempFile data("elyblock-run");
+    {
+        Output out(data.path, "--plot");
+        std::string line = "time [s]";
+        for (const Variable* v : plotted) line += fmt::format(",{} [{}]", v->info.name, v->info.unit);
+        out.write(line + "\n");
+        for (std::size_t k = 0; k < p.times.size(); ++k) {
+            line = fmt::format("{}", p.times[k]);
+            for (std::size_t c = 0; c < plotted.size(); ++c) {
+                const double x = values[k * width + first + c];
+                line += std::isfinite(x) ? fmt::format(",{}", x) : std::string(",");
+            }
+            out.write(line + "\n");
+        }
+        out.close();
+    }
+    const auto value = [&](const char* name) {
+        double x = std::nan("");
+        if (const Variable* v = block.find(name)) ely_block_get(block.handle(), v->index, &x);
+        return fmt::format("{}", x);
+    };
+    plot_with_python("run", "run", data.path, files,
+                     {"--setpoint", value("param.thermal.temperature_setpoint"), "--warning",
+                      value("param.alarms.h2_in_o2_warning"), "--trip", value("param.alarms.h2_in_o2_trip")});
+    for (const auto& f : files) note("run", "wrote " + f);
+}
+
 int run(const RunOptions& o) {
     const Units units = o.units == "engineering" ? Units::engineering : Units::si;
     // A drive input among the profile's columns (power, current, ...) selects the spec that reads it.
@@ -237,11 +273,19 @@ int run(const RunOptions& o) {
     } else {
         for (const auto& name : o.columns) columns.push_back(&variable_named(*block, name, "--columns"));
     }
+    check_plot_files(o.plots, "--plot");
     std::vector<int32_t> in_idx, out_idx;
     for (const Variable* v : p.inputs) in_idx.push_back(v->index);
     for (const Variable* v : columns) out_idx.push_back(v->index);
+    std::vector<const Variable*> plotted;  // read after the series' columns
+    if (!o.plots.empty())
+        for (const char* name : kPlotColumns)
+            if (const Variable* v = block->find(name)) {
+                plotted.push_back(v);
+                out_idx.push_back(v->index);
+            }
 
-    const std::size_t rows = p.times.size(), width = columns.size();
+    const std::size_t rows = p.times.size(), width = out_idx.size();
     std::vector<double> values(rows * width);
     std::vector<int32_t> status(rows);
     Progress progress{!o.no_progress && isatty(fileno(stderr)) != 0};
@@ -265,7 +309,7 @@ int run(const RunOptions& o) {
         for (std::size_t k = 0; k < rows; ++k) {
             const double t = si_time ? p.times[k] : convert(p.times[k], "s", time_unit.c_str(), "time");
             line = number_text(t, units) + "," + ely_status_text(status[k]);
-            for (std::size_t c = 0; c < width; ++c)
+            for (std::size_t c = 0; c < columns.size(); ++c)
                 line += "," + number_text(shown(columns[c]->info, values[k * width + c], units).value, units);
             out->write(line + "\n");
         }
@@ -286,6 +330,7 @@ int run(const RunOptions& o) {
         out.write(text);
         out.close();
     }
+    if (!o.plots.empty()) plot_run(*block, p, plotted, values, width, columns.size(), o.plots);
     if (result == ELY_PARTIAL) {
         note("run", message + fmt::format(" (the series stops there; the summary covers the rows before)"));
         return kExitFailure;
@@ -321,6 +366,11 @@ Command command_run() {
                                "profile's unit)")
                     ->check(CLI::IsMember({"si", "engineering"}));
                 sub.add_flag("--no-progress", o->no_progress, "no progress bar (there is none when not on a terminal)");
+                sub.add_option("--plot", o->plots,
+                               "draw the run to this file (.png, .svg or .pdf; may be repeated): the load duration "
+                               "curve and the stack temperature and H2-in-O2 traces, by the elyblock Python package "
+                               "(python3 with matplotlib)")
+                    ->type_name("FILE");
                 sub.footer(
                     "The profile: the first column is the time (\"time [h]\", any step, non-decreasing); the others are\n"
                     "inputs: power (in.power, the stacks' DC power), current (in.current) or current_density select\n"

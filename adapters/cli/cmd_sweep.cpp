@@ -12,7 +12,9 @@
 #include "command.hpp"
 #include "csv.hpp"
 #include "errors.hpp"
+#include "output.hpp"
 #include "plant.hpp"
+#include "python_plot.hpp"
 #include "quantities.hpp"
 #include "summary.hpp"
 
@@ -23,8 +25,13 @@ struct SweepOptions {
     PlantOptions plant;
     std::string over, from, to, output, units;
     int points = 21;
-    std::vector<std::string> columns;
+    std::vector<std::string> columns, plots;
 };
+
+// What --plot draws (the Python package's VOLTAGE_OUTPUTS, elyblock/plots.py): the cell voltage and
+// its parts, after the columns and the alarms.
+const char* const kVoltageParts[] = {"cell.reversible_voltage", "cell.activation_anode", "cell.activation_cathode",
+                                     "cell.ohmic", "cell.degradation", "cell.concentration", "cell.voltage"};
 
 // The columns when none are given: the variables of the technology's summary layout (what
 // `solve` shows), in its order, without the alarms (they are summarised after the sweep).
@@ -78,6 +85,12 @@ int run(const SweepOptions& o) {
     std::vector<int32_t> wanted;
     for (std::size_t c = 1; c < columns.size(); ++c) wanted.push_back(columns[c]->index);
     for (const Variable* a : alarms) wanted.push_back(a->index);
+    check_plot_files(o.plots, "--plot");
+    std::vector<const Variable*> plotted;
+    if (!o.plots.empty())
+        for (const char* name : kVoltageParts) plotted.push_back(&variable_named(*block, name, "--plot"));
+    const std::size_t plot_first = wanted.size();
+    for (const Variable* v : plotted) wanted.push_back(v->index);
 
     const auto n = static_cast<std::size_t>(o.points);
     const std::size_t width = wanted.size();
@@ -101,6 +114,26 @@ int run(const SweepOptions& o) {
             table.row(columns, row.data(), ely_status_text(status[k]));
         }
         out->close();
+    }
+
+    // --plot: the solved points' voltage breakdown in SI, drawn by the Python package.
+    if (!o.plots.empty()) {
+        TempFile data("elyblock-sweep");
+        {
+            Output out(data.path, "--plot");
+            std::string line = fmt::format("{} [{}]", over.info.name, over.info.unit);
+            for (const Variable* v : plotted) line += fmt::format(",{} [{}]", v->info.name, v->info.unit);
+            out.write(line + "\n");
+            for (std::size_t k = 0; k < n; ++k) {
+                if (status[k] < 0) continue;
+                line = fmt::format("{}", in[k]);
+                for (std::size_t c = 0; c < plotted.size(); ++c) line += fmt::format(",{}", values[k * width + plot_first + c]);
+                out.write(line + "\n");
+            }
+            out.close();
+        }
+        plot_with_python("sweep", "sweep", data.path, o.plots, {});
+        for (const auto& f : o.plots) note("sweep", "wrote " + f);
     }
 
     // After the data, once: which alarms were raised where, and how many points failed.
@@ -163,6 +196,11 @@ Command command_sweep() {
                                "si (default) or engineering (the variable table's display units: A/cm2, degC, bar, "
                                "kg/h, kWh/kg, ...)")
                     ->check(CLI::IsMember({"si", "engineering"}));
+                sub.add_option("--plot", o->plots,
+                               "draw the cell voltage and its parts (stacked) against the swept input to this file "
+                               "(.png, .svg or .pdf; may be repeated; over in.current_density: the polarization "
+                               "curve), by the elyblock Python package (python3 with matplotlib)")
+                    ->type_name("FILE");
                 sub.footer(
                     "Examples:\n"
                     "  elyblock sweep plant.json --over in.current_density --from \"0.1 A/cm2\" --to \"2.5 A/cm2\" "

@@ -6,20 +6,18 @@
 #include "base/check.hpp"
 #include "thermo/constants.hpp"
 #include "thermo/if97.hpp"
+#include "thermo/thermo_kernels.hpp"
 #include "thermo/water.hpp"
 
 namespace ely {
 namespace {
 
 // NIST Chemistry WebBook (Chase, NIST-JANAF Thermochemical Tables, 4th ed., 1998),
-// Shomate form with t = T/1000:
+// Shomate form with t = T/1000 (ShomateCoefficients, thermo_kernels.hpp):
 //   cp = A + B t + C t² + D t³ + E/t²                       J/(mol K)
 //   h − h298 = A t + B t²/2 + C t³/3 + D t⁴/4 − E/t + F − H  kJ/mol
 //   s = A ln t + B t + C t²/2 + D t³/3 − E/(2t²) + G         J/(mol K)
-struct Shomate {
-    double t_lo, t_hi;
-    double A, B, C, D, E, F, G, H;
-};
+using Shomate = ShomateCoefficients;
 
 // Each species: up to two adjacent ranges. Water vapour has no published fit below 500 K.
 struct SpeciesData {
@@ -53,13 +51,11 @@ constexpr SpeciesData kData[kSpeciesCount] = {
 // range to the highest bound of the last (no extrapolation).
 MolarProperties from_shomate(const Shomate& c, double formation_enthalpy, double temperature) {
     const double t = temperature / 1000.0;
-    const double t2 = t * t, t3 = t2 * t, t4 = t3 * t;
     MolarProperties p{};
-    p.cp = c.A + c.B * t + c.C * t2 + c.D * t3 + c.E / t2;
+    p.cp = kernel::shomate_heat_capacity(c, t);
     // The table's H term is ΔfH° in kJ/mol; (h − h298) + ΔfH° puts h on the elements' reference.
-    p.enthalpy = 1000.0 * (c.A * t + c.B * t2 / 2 + c.C * t3 / 3 + c.D * t4 / 4 - c.E / t + c.F - c.H) +
-                 formation_enthalpy;
-    p.entropy = c.A * std::log(t) + c.B * t + c.C * t2 / 2 + c.D * t3 / 3 - c.E / (2 * t2) + c.G;
+    p.enthalpy = kernel::shomate_enthalpy(c, formation_enthalpy, t);
+    p.entropy = kernel::shomate_entropy(c, t, std::log(t));
     p.gibbs = p.enthalpy - temperature * p.entropy;
     return p;
 }
@@ -112,6 +108,13 @@ double solute_molar_mass(Solute solute) { return kSolutes[static_cast<int>(solut
 
 const char* species_name(Species species) { return kData[static_cast<int>(species)].name; }
 
+const ShomateCoefficients& shomate_fit(Species species, double temperature) {
+    const auto& d = kData[static_cast<int>(species)];
+    return (d.n == 2 && temperature > d.fit[0].t_hi) ? d.fit[1] : d.fit[0];
+}
+
+double formation_enthalpy(Species species) { return kData[static_cast<int>(species)].formation_enthalpy; }
+
 double species_molar_mass(Species species) { return kData[static_cast<int>(species)].molar_mass; }
 
 TemperatureRange ideal_gas_range(Species species) {
@@ -130,8 +133,7 @@ MolarProperties ideal_gas(Species species, double temperature) {
                                 "{:g}..{:g} K of the NIST Shomate fit",
                                 d.name, temperature, range.lo, range.hi));
     if (species == Species::water_vapour && temperature < d.fit[0].t_lo) return water_vapour_low(temperature);
-    const Shomate& c = (d.n == 2 && temperature > d.fit[0].t_hi) ? d.fit[1] : d.fit[0];
-    return from_shomate(c, d.formation_enthalpy, temperature);
+    return from_shomate(shomate_fit(species, temperature), d.formation_enthalpy, temperature);
 }
 
 }  // namespace ely

@@ -27,6 +27,12 @@ TemperatureRange ideal_gas_range(Species species);
 /// IAPWS-IF97 region 2 anchored to the CODATA key values at 298.15 K.
 MolarProperties ideal_gas(Species species, double temperature);
 
+/// The Shomate coefficients that apply at T (the fit's range containing it; water vapour: 500 K and
+/// above) and the formation enthalpy at 298.15 K, J/mol, for kernels that evaluate the fit themselves.
+struct ShomateCoefficients;
+const ShomateCoefficients& shomate_fit(Species species, double temperature);
+double formation_enthalpy(Species species);
+
 /// Aqueous solutes of the brine cell, standard state 1 mol/kg (ideal dilute).
 enum class Solute { sodium_chloride, sodium_hydroxide };
 

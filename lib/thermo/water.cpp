@@ -4,6 +4,7 @@
 
 #include "thermo/constants.hpp"
 #include "thermo/if97.hpp"
+#include "thermo/thermo_kernels.hpp"
 
 namespace ely {
 
@@ -38,5 +39,23 @@ MolarProperties liquid_water_standard(double temperature) {
 }
 
 double water_saturation_pressure(double temperature) { return if97::saturation_pressure(temperature); }
+
+WaterThermoData water_thermo_data() {
+    // The anchors liquid_water() and the ideal-gas water vapour below 500 K use (species.cpp), and the
+    // gases' low-temperature Shomate fits (each reaches at least 500 K).
+    const auto liquid = if97::region1(kStandardTemperature, kStandardPressure);
+    WaterThermoData d{};
+    d.liquid_formation_enthalpy = kLiquidWaterFormationEnthalpy;
+    d.liquid_entropy_298 = kLiquidWaterEntropy298;
+    d.region1_h_ref = liquid.h;
+    d.region1_s_ref = liquid.s;
+    d.vapour_formation_enthalpy = kWaterVapourFormationEnthalpy;
+    d.region2_ideal_h_ref = if97::region2_ideal_gas(kStandardTemperature, kStandardPressure).h;
+    d.hydrogen = &shomate_fit(Species::hydrogen, kStandardTemperature);
+    d.oxygen = &shomate_fit(Species::oxygen, kStandardTemperature);
+    d.nitrogen = &shomate_fit(Species::nitrogen, kStandardTemperature);
+    d.water_vapour = &shomate_fit(Species::water_vapour, 500.0);
+    return d;
+}
 
 }  // namespace ely

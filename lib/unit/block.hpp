@@ -66,6 +66,18 @@ public:
     void set_spec(Spec spec);
     Spec spec() const { return spec_; }
 
+    /// For the batch kernels (lib/batch), which read the block as a batch starts: the value a table
+    /// variable holds (inputs and parameters in force), the rectifier rating in force, the cell's
+    /// parameter values in force, and the table variable behind an index (-1 for a cell parameter or an
+    /// output the cell adds).
+    double value(Var v) const { return v_[static_cast<std::size_t>(v)]; }
+    double rectifier_rated_power() const { return rectifier_rated_power_; }
+    const ParameterValues* cell_parameter_values() const { return cell_values_.get(); }
+    int32_t table_variable(int32_t index) const {
+        const Slot s = slot(index);
+        return s.kind == Kind::table ? s.id : -1;
+    }
+
     SolveOutcome solve();  // throws on failure after rolling back
     bool solved() const { return outputs_current_; }
 

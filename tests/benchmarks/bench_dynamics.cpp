@@ -16,7 +16,7 @@ const char* const kDemo = R"({"technology":"pem","name":"demo plant",
   "stack":{"cells":250,"active_area":"2000 cm2","stacks":10},"cell":{"h2_recombination_fraction_anode":0.9},
   "plant":{"rectifier":{"loss_no_load":0.005,"loss_linear":0.01,"loss_quadratic":0.015},
            "auxiliaries":{"fixed":"150 kW","proportional":0.03},
-           "limits":{"current_density_max":"2.5 A/cm2","min_load_fraction":0.1,"temperature_max":"85 degC"},
+           "limits":{"current_density_max":"2.5 A/cm2","rated_current_density":"2.5 A/cm2","min_load_fraction":0.1,"temperature_max":"85 degC"},
            "degradation":{"voltage_rate":"4 uV/h"},"thermal":{"feed_temperature":"15 degC"}},
   "operating":{"spec":"power","power":"12 MW","temperature":"65 degC","pressure_cathode":"30 bar",
                "pressure_anode":"1.5 bar","hours_operated":8000,"mode_request":3}})";

@@ -198,6 +198,67 @@ def case_profile_errors():
     expect(rc == 2 and "the profile has a column of it" in err, f"--set of a profile column: {rc} {err}")
 
 
+def case_plot_files():
+    # --plot: PNG and SVG of the run, drawn by the Python package from the run's own numbers; the
+    # SVG's duration curve ends at the run's length (two days), its traces span the profile.
+    if os.environ.get("ELY_TEST_NO_PYTHON_LIBRARY"):
+        print("skipped: the sanitizer build's library does not load into an uninstrumented python3")
+        return
+    rc, out, err = run("run", DEMO, two_days(), "--output", "d.csv", "--plot", "d.png", "--plot", "d.svg")
+    expect(rc == 0, f"exited {rc}: {err}")
+    with open(os.path.join(TMP, "d.png"), "rb") as f:
+        expect(f.read(8) == b"\x89PNG\r\n\x1a\n", "d.png is not a PNG")
+    svg = open(os.path.join(TMP, "d.svg")).read()
+    expect(svg.lstrip().startswith("<?xml") and "<svg" in svg, "d.svg is not an SVG")
+    expect("load duration curve" in svg or "load" in svg, "the SVG lacks the duration curve")
+    expect("wrote d.png" in err and "wrote d.svg" in err, f"no note of the files: {err}")
+    expect("duration" in out, "the summary still goes to standard output")
+    expect(not os.path.exists(os.path.join(TMP, "d.csv")) or "d.png" not in open(os.path.join(TMP, "d.csv")).read(),
+           "the plot's columns went into the series")
+    head, _ = series(os.path.join(TMP, "d.csv"))
+    expect("perf.load_fraction [1]" not in head, f"the plot's columns went into the series: {head}")
+
+
+def case_plot_errors():
+    # A bad file name is a usage error before anything runs; a missing interpreter or matplotlib is
+    # a clear failure after the run (the series and the summary are written).
+    profile = two_days()
+    rc, out, err = run("run", DEMO, profile, "--plot", "d.jpeg")
+    expect(rc == 2 and ".png, .svg or .pdf" in err, f"bad plot file: {rc} {err}")
+    env = dict(os.environ, ELYBLOCK_PYTHON="/nonexistent/python3")
+    p = subprocess.run([BIN, "run", DEMO, profile, "--plot", "d.png"], capture_output=True, text=True, cwd=TMP, env=env)
+    expect(p.returncode == 1 and "needs Python 3 with matplotlib" in p.stderr and "/nonexistent/python3" in p.stderr,
+           f"missing python: {p.returncode} {p.stderr}")
+    expect("duration" in p.stdout, "the summary is printed before the plot fails")
+    fake = os.path.join(TMP, "no-matplotlib")
+    os.makedirs(os.path.join(fake, "matplotlib"), exist_ok=True)
+    with open(os.path.join(fake, "matplotlib", "__init__.py"), "w") as f:
+        f.write("raise ImportError('no matplotlib here')\n")
+    env = dict(os.environ, ELYBLOCK_PYTHON="/usr/bin/python3", PYTHONPATH=fake)
+    p = subprocess.run([BIN, "run", DEMO, profile, "--plot", "d.png"], capture_output=True, text=True, cwd=TMP, env=env)
+    expect(p.returncode == 1 and "needs matplotlib" in p.stderr and "python3-matplotlib" in p.stderr,
+           f"missing matplotlib: {p.returncode} {p.stderr}")
+    expect(not os.path.exists(os.path.join(TMP, "d.png")), "a plot was written")
+
+
+def case_sweep_plot():
+    # `elyblock sweep --plot`: the voltage breakdown of the sweep, drawn by the same package; the
+    # series on standard output is the sweep's own (no plot columns added to it).
+    if os.environ.get("ELY_TEST_NO_PYTHON_LIBRARY"):
+        print("skipped: the sanitizer build's library does not load into an uninstrumented python3")
+        return
+    rc, out, err = run("sweep", DEMO, "--over", "in.temperature", "--from", "50 degC", "--to", "80 degC",
+                       "--points", "7", "--columns", "cell.voltage", "--plot", "t.svg")
+    expect(rc == 0, f"exited {rc}: {err}")
+    expect(out.splitlines()[0] == "in.temperature [K],status,cell.voltage [V]", f"header {out.splitlines()[0]}")
+    svg = open(os.path.join(TMP, "t.svg")).read()
+    expect("<svg" in svg and "in.temperature" in svg, "the SVG lacks the swept input's axis")
+    expect("wrote t.svg" in err, f"no note of the file: {err}")
+    rc, out, err = run("sweep", DEMO, "--over", "in.current_density", "--from", "0.1 A/cm2", "--to", "2 A/cm2",
+                       "--points", "5", "--plot", "curve.pdf")
+    expect(rc == 0 and open(os.path.join(TMP, "curve.pdf"), "rb").read(5) == b"%PDF-", f"pdf: {rc} {err}")
+
+
 def main():
     case = globals().get("case_" + CASE)
     if case is None:

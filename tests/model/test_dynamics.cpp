@@ -261,7 +261,7 @@ TEST(DynamicsEnergy, HeatCapacityTimesTemperatureChangeIsTheIntegralOfTheHeatFlo
     const double c = p.get("param.heat_capacity"), t0 = p.get("stack.temperature");
     const auto net = [&] { return p.get("heat.released") - p.get("heat.to_coolant") - p.get("heat.loss"); };
     std::vector<double> f{net()};
-    p.set("in.current_density", 20000);  // a ramp of 5 s at 10 %/s of 2 A/cm2: its ends fall on Simpson's panels
+    p.set("in.current_density", 22500);  // a ramp of 5 s at 10 %/s of 2.5 A/cm2: its ends fall on Simpson's panels
     const double h = 0.5;
     for (int k = 0; k < 240; ++k) {  // two minutes of ramp and warming
         p.block.advance(h);
@@ -319,7 +319,7 @@ TEST(DynamicsRamps, TheCurrentFollowsASetpointStepAtTheRampRate) {
     const double minimum = 0.1 * p.get("param.limits.rated_current_density");
     EXPECT_EQ(p.get("cell.current_density"), minimum);
     EXPECT_EQ(p.get("alarm.load_low"), 1.0);
-    // 20000 → 2000 A/m² at 200 A/m² per s: 90 s of ramp, then at the minimum from t = 85.5 + 90.
+    // 20000 → 2500 A/m² at 250 A/m² per s: 70 s of ramp, then at the minimum from t = 85.5 + 70.
     EXPECT_NEAR(p.summary("hours_at_minimum_load") * 3600, 195.5 - (85.5 + (20000 - minimum) / rate), 1e-6);
 }
 

@@ -28,13 +28,13 @@ from elyblock import _capi
 DEMO_PLANT = pathlib.Path(__file__).resolve().parents[2] / "examples" / "demo-plant.json"
 
 
-def best(function, repeat=7, number=1):
+def best(function, repeat=7, number=1, clock=time.perf_counter):
     times = []
     for _ in range(repeat):
-        started = time.perf_counter()
+        started = clock()
         for _ in range(number):
             function()
-        times.append((time.perf_counter() - started) / number)
+        times.append((clock() - started) / number)
     return min(times), statistics.median(times)
 
 
@@ -81,6 +81,7 @@ def main():
     report("b.batch(1 point) on a block with inputs set since its solve",
            best(lambda: (c.__setitem__("in.temperature", 340.0), c.batch(one, outputs, progress=False)), number=2_000))
     fit_timings()
+    simulate_timings()
 
     n = args.points
     rng = np.random.default_rng(1)
@@ -156,6 +157,44 @@ def fit_timings():
     report("bare ctypes ely_block_fit", raw, unit="s")
     report("Block.fit (dict of arrays, result with report and plant)", mine, unit="s")
     print(f"  {'package overhead per fit':<58} {(mine[0] - raw[0]) * 1e3:10.3f} ms")
+
+
+def simulate_timings():
+    """The demo year (8761 hourly rows) through Block.simulate against ely_block_simulate called
+    through bare ctypes with the same SI columns; and the same year read as the CSV's DataFrame,
+    whose units in the column names the package converts."""
+    import pandas as pd
+    frame = pd.read_csv(DEMO_PLANT.parent / "profiles" / "windsolar-year.csv", comment="#")
+    frame["in.mode_request"] = 3
+    times = frame["time [h]"].to_numpy() * 3600.0
+    columns = {"in.power": frame["power [MW]"].to_numpy() * 1e6,
+               "in.ambient_temperature": frame["in.ambient_temperature [degC]"].to_numpy() + 273.15,
+               "in.mode_request": frame["in.mode_request"].to_numpy(dtype=float)}
+    outputs = ["stack.temperature", "gas.h2_in_o2", "product.hydrogen", "plant.power"]
+    b = elyblock.Block(DEMO_PLANT)
+    b.set_spec("power")
+    in_idx = np.array([b._index(n) for n in columns], dtype=np.int32)
+    out_idx = np.array([b._index(n) for n in outputs], dtype=np.int32)
+    matrix = np.ascontiguousarray(np.column_stack(list(columns.values())))
+    n = len(times)
+    values, status = np.empty((n, len(outputs))), np.empty(n, dtype=np.int32)
+
+    def bare():
+        s = _capi.lib.ely_block_simulate(b._handle, n, times.ctypes.data, len(in_idx), in_idx.ctypes.data,
+                                         matrix.ctypes.data, len(out_idx), out_idx.ctypes.data, values.ctypes.data,
+                                         status.ctypes.data, _capi.PROGRESS(), None)
+        assert s >= 0, _capi.last_error()
+
+    # CPU time of this process: the calls run on one thread, and the machine may be shared.
+    print(f"a profile run, the demo year ({n} hourly rows, {len(outputs)} outputs), CPU time:")
+    cpu = time.process_time
+    raw = best(bare, repeat=3, clock=cpu)
+    mine = best(lambda: b.simulate(dict(time=times, **columns), outputs, progress=False), repeat=3, clock=cpu)
+    units = best(lambda: b.simulate(frame, outputs, time="time", progress=False), repeat=3, clock=cpu)
+    report("bare ctypes ely_block_simulate", raw, unit="s")
+    report("Block.simulate, dict of SI arrays", mine, unit="s")
+    report("Block.simulate, the CSV's DataFrame (units converted)", units, unit="s")
+    print(f"  {'package overhead per run (SI arrays)':<58} {(mine[0] - raw[0]) * 1e3:10.3f} ms")
 
 
 def two_threads(block, inputs, outputs, spec):

@@ -131,6 +131,50 @@ class Reference:
         report, plant = self._json_line(), self._json_line()
         return status, parameters, report, plant
 
+    def reset(self, start_time):
+        return self._ask(f"reset {float(start_time).hex()}")[0]
+
+    def advance(self, step):
+        return self._ask(f"advance {float(step).hex()}")[0]
+
+    def time(self):
+        status, rest = self._ask("time")
+        assert status >= 0, rest
+        return float.fromhex(rest)
+
+    def save_state(self):
+        status, rest = self._ask("save")
+        assert status >= 0, rest
+        return bytes.fromhex(self.process.stdout.readline().strip())
+
+    def restore_state(self, state):
+        self.process.stdin.write(f"restore {len(state)}\n{state.hex()}\n")
+        self.process.stdin.flush()
+        return self._reply()
+
+    def simulate(self, times, inputs, outputs):
+        """The C profile run (ely_block_simulate): times and inputs (a dict of equally long 1-D
+        arrays, SI). Returns (call status, row statuses, dict of output arrays)."""
+        names = list(inputs)
+        columns = [np.asarray(inputs[n], dtype=float).ravel() for n in names]
+        times = np.asarray(times, dtype=float).ravel()
+        n = len(times)
+        lines = [f"simulate {n} {len(names)} {len(outputs)}", " ".join(names), " ".join(outputs)]
+        lines += [" ".join(float(v).hex() for v in [times[k]] + [c[k] for c in columns]) for k in range(n)]
+        self.process.stdin.write("\n".join(lines) + "\n")
+        self.process.stdin.flush()
+        status, rest = self._reply()
+        rows = [self.process.stdout.readline().split() for _ in range(n)]
+        row_status = np.array([int(r[0]) for r in rows], dtype=np.int32)
+        values = {o: np.array([float.fromhex(r[1 + i]) if len(r) > 1 + i else np.nan for r in rows])
+                  for i, o in enumerate(outputs)}
+        return status, row_status, values
+
+    def run_summary(self):
+        status, rest = self._ask("summary")
+        assert status >= 0, rest
+        return json.loads(self.process.stdout.readline(), parse_constant=lambda c: float("nan"))
+
     def _json_line(self):
         self.process.stdout.readline()  # the length
         return json.loads(self.process.stdout.readline())

@@ -28,6 +28,15 @@
  *                               -> "status S", then NFREE lines "VALUE STANDARD_ERROR", then the
  *                               report and the calibrated plant, each as "LENGTH" and the JSON
  *                               on one line (its line breaks turned into spaces)
+ *   reset T                     -> "status S"           (ely_block_reset)
+ *   advance DT                  -> "status S"           (ely_block_advance)
+ *   time                        -> "status S TIME"      (ely_block_time)
+ *   save                        -> "status S LENGTH", then the state's bytes in hexadecimal on one line
+ *   restore LENGTH              followed by a line of the state's bytes in hexadecimal -> "status S"
+ *   simulate NROWS NIN NOUT     followed by a line of NIN input names, a line of NOUT output
+ *                               names and NROWS lines "TIME V1 ... VNIN" (ely_block_simulate)
+ *                               -> "status S", then NROWS lines "ROW_STATUS V1 ... VNOUT"
+ *   summary                     -> "status S LENGTH", then the run summary's JSON on one line
  *   quit
  *
  * A failed call answers "status S" followed by the library's message on the same line.
@@ -176,14 +185,89 @@ static void fit(size_t n_points, int32_t n_in, int32_t n_meas, int32_t n_free) {
     free(names); free(bounds); free(weights); free(meas); free(in); free(meas_idx); free(in_idx);
 }
 
-static void report(void) {
+/* A block's JSON text (ely_block_report_json, ely_block_run_summary_json): "status S LENGTH", then the text. */
+static void block_text(int32_t (*call)(const ely_block*, char*, size_t, size_t*)) {
     size_t length = 0;
-    int32_t s = block ? ely_block_report_json(block, NULL, 0, &length) : ELY_ERR_WRONG_STATE;
+    int32_t s = block ? call(block, NULL, 0, &length) : ELY_ERR_WRONG_STATE;
     char* text = s >= 0 ? malloc(length) : NULL;
-    if (s >= 0) s = ely_block_report_json(block, text, length, &length);
+    if (s >= 0) s = call(block, text, length, &length);
     if (s < 0) answer(s);
     else printf("status %d %zu\n%s\n", (int)s, length, text);
     free(text);
+}
+
+static void simulate(size_t n_rows, int32_t n_in, int32_t n_out) {
+    static char names[LINE];
+    int32_t* in_idx = calloc((size_t)n_in + 1, sizeof(int32_t));
+    int32_t* out_idx = calloc((size_t)n_out + 1, sizeof(int32_t));
+    double* times = calloc(n_rows + 1, sizeof(double));
+    double* in = calloc(n_rows * (size_t)n_in + 1, sizeof(double));
+    double* out = calloc(n_rows * (size_t)n_out + 1, sizeof(double));
+    int32_t* st = calloc(n_rows + 1, sizeof(int32_t));
+    int32_t s = ELY_OK;
+    if (!read_line(names) || (s = find_names(names, n_in, in_idx)) < 0) goto done;
+    if (!read_line(names) || (s = find_names(names, n_out, out_idx)) < 0) goto done;
+    for (size_t k = 0; k < n_rows; ++k) {
+        static char row[LINE];
+        if (!read_line(row)) { s = ELY_ERR_INVALID_ARGUMENT; goto done; }
+        char* save = NULL;
+        char* token = strtok_r(row, " \t\r\n", &save);
+        for (int32_t i = -1; i < n_in; ++i) {
+            const double v = token ? strtod(token, NULL) : 0.0;
+            if (i < 0) times[k] = v;
+            else in[k * (size_t)n_in + (size_t)i] = v;
+            token = strtok_r(NULL, " \t\r\n", &save);
+        }
+    }
+    s = ely_block_simulate(block, n_rows, times, n_in, in_idx, in, n_out, out_idx, out, st, NULL, NULL);
+    answer(s);
+    for (size_t k = 0; k < n_rows; ++k) {
+        printf("%d", (int)st[k]);
+        for (int32_t o = 0; o < n_out; ++o) printf(" %a", out[k * (size_t)n_out + (size_t)o]);
+        printf("\n");
+    }
+    goto freed;
+done:
+    answer(s);
+    for (size_t k = 0; k < n_rows; ++k) printf("%d\n", (int)s);
+freed:
+    free(in_idx);
+    free(out_idx);
+    free(times);
+    free(in);
+    free(out);
+    free(st);
+}
+
+static void save_state(void) {
+    size_t length = 0;
+    int32_t s = block ? ely_block_save_state(block, NULL, 0, &length) : ELY_ERR_WRONG_STATE;
+    unsigned char* bytes = s >= 0 ? malloc(length + 1) : NULL;
+    if (s >= 0) s = ely_block_save_state(block, bytes, length, &length);
+    if (s < 0) {
+        answer(s);
+    } else {
+        printf("status %d %zu\n", (int)s, length);
+        for (size_t k = 0; k < length; ++k) printf("%02x", bytes[k]);
+        printf("\n");
+    }
+    free(bytes);
+}
+
+static void restore_state(size_t length) {
+    static char hex[LINE * 4];
+    unsigned char* bytes = malloc(length + 1);
+    int32_t s = ELY_ERR_INVALID_ARGUMENT;
+    if (fgets(hex, sizeof hex, stdin) && strlen(hex) >= 2 * length) {
+        for (size_t k = 0; k < length; ++k) {
+            unsigned int b = 0;
+            sscanf(hex + 2 * k, "%2x", &b);
+            bytes[k] = (unsigned char)b;
+        }
+        s = block ? ely_block_restore_state(block, bytes, length) : ELY_ERR_WRONG_STATE;
+    }
+    answer(s);
+    free(bytes);
 }
 
 static const char* text_of(const char* s) { return s ? s : "(null)"; }
@@ -242,7 +326,7 @@ int main(void) {
             if (s < 0) answer(s);
             else printf("status %d %a\n", (int)s, value);
         } else if (strcmp(command, "report") == 0) {
-            report();
+            block_text(ely_block_report_json);
         } else if (strcmp(command, "variables") == 0) {
             variables();
         } else if (strcmp(command, "water") == 0 && arg) {
@@ -269,6 +353,26 @@ int main(void) {
             const char* n_free = n_meas ? strtok_r(NULL, " \t\r\n", &save) : NULL;
             if (!block || !n_free) answer(ELY_ERR_WRONG_STATE);
             else fit((size_t)strtoull(arg, NULL, 10), (int32_t)atoi(n_in), (int32_t)atoi(n_meas), (int32_t)atoi(n_free));
+        } else if (strcmp(command, "reset") == 0 && arg) {
+            answer(block ? ely_block_reset(block, strtod(arg, NULL)) : ELY_ERR_WRONG_STATE);
+        } else if (strcmp(command, "advance") == 0 && arg) {
+            answer(block ? ely_block_advance(block, strtod(arg, NULL)) : ELY_ERR_WRONG_STATE);
+        } else if (strcmp(command, "time") == 0) {
+            double t = 0.0;
+            const int32_t s = block ? ely_block_time(block, &t) : ELY_ERR_WRONG_STATE;
+            if (s < 0) answer(s);
+            else printf("status %d %a\n", (int)s, t);
+        } else if (strcmp(command, "save") == 0) {
+            save_state();
+        } else if (strcmp(command, "restore") == 0 && arg) {
+            restore_state((size_t)strtoull(arg, NULL, 10));
+        } else if (strcmp(command, "simulate") == 0 && arg) {
+            const char* n_in = strtok_r(NULL, " \t\r\n", &save);
+            const char* n_out = n_in ? strtok_r(NULL, " \t\r\n", &save) : NULL;
+            if (!block || !n_out) answer(ELY_ERR_WRONG_STATE);
+            else simulate((size_t)strtoull(arg, NULL, 10), (int32_t)atoi(n_in), (int32_t)atoi(n_out));
+        } else if (strcmp(command, "summary") == 0) {
+            block_text(ely_block_run_summary_json);
         } else {
             printf("status %d unknown command\n", (int)ELY_ERR_INVALID_ARGUMENT);
         }

@@ -218,6 +218,20 @@ ELY_API int32_t ely_block_solve_batch(const ely_block* block, size_t n_points, i
                                       const int32_t* output_indices, double* outputs, int32_t* point_status,
                                       ely_progress_fn progress, void* user);
 
+/* ely_block_solve_batch on several threads: the same arguments, statuses, outputs and messages,
+ * and threads (>= 1; 0 for one per core). The points are cut into pieces of 4096 in order; each
+ * piece is solved in order on its own working copy of the block at the start of the call (as
+ * ely_block_solve_batch solves all points on one), so the results do not depend on the thread
+ * count (at the power, hydrogen-rate and voltage specs a piece's first point is not warm-started
+ * from the previous piece, which moves its answer only within the solver's tolerance). progress is
+ * called on the calling thread after each piece it solves and after the last point; returning
+ * non-zero stops the pieces not yet started (their points get ELY_ERR_CANCELLED). Every other
+ * call on the same block must wait for it (the block is read, not changed). */
+ELY_API int32_t ely_block_solve_batch_threads(const ely_block* block, size_t n_points, int32_t n_inputs,
+                                              const int32_t* input_indices, const double* inputs, int32_t n_outputs,
+                                              const int32_t* output_indices, double* outputs, int32_t* point_status,
+                                              int32_t threads, ely_progress_fn progress, void* user);
+
 /* The solved state as JSON text (UTF-8, NUL-terminated). *length receives the size needed
  * including the NUL; with buffer NULL and capacity 0 only the size is reported (ELY_OK);
  * a smaller non-zero capacity gives ELY_ERR_BUFFER_TOO_SMALL, reports the size needed in

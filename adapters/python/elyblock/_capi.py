@@ -131,11 +131,25 @@ _PROTOTYPES = {
                                             ctypes.POINTER(ctypes.c_size_t)]),
     "ely_fit_parameter": (ctypes.c_int32, [_handle, ctypes.c_int32, _c_double_p, _c_double_p]),
     "ely_fit_destroy": (None, [_handle]),
+    # the block in time
+    "ely_block_reset": (ctypes.c_int32, [_handle, ctypes.c_double]),
+    "ely_block_advance": (ctypes.c_int32, [_handle, ctypes.c_double]),
+    "ely_block_time": (ctypes.c_int32, [_handle, _c_double_p]),
+    "ely_block_save_state": (ctypes.c_int32, [_handle, ctypes.c_void_p, ctypes.c_size_t,
+                                              ctypes.POINTER(ctypes.c_size_t)]),
+    "ely_block_restore_state": (ctypes.c_int32, [_handle, ctypes.c_void_p, ctypes.c_size_t]),
+    "ely_block_simulate": (ctypes.c_int32, [_handle, ctypes.c_size_t, ctypes.c_void_p, ctypes.c_int32, ctypes.c_void_p,
+                                            ctypes.c_void_p, ctypes.c_int32, ctypes.c_void_p, ctypes.c_void_p,
+                                            ctypes.c_void_p, PROGRESS, ctypes.c_void_p]),
+    "ely_block_run_summary_json": (ctypes.c_int32, [_handle, ctypes.c_char_p, ctypes.c_size_t,
+                                                    ctypes.POINTER(ctypes.c_size_t)]),
 }
 # Calls added after the first release of ABI 1: an older library lacks them, and the package
 # works without them (the features that need them say so).
 _OPTIONAL = {"ely_block_get_spec", "ely_parse_quantity", "ely_convert_unit", "ely_block_fit", "ely_fit_report_json",
-             "ely_fit_plant_json", "ely_fit_parameter", "ely_fit_destroy"}
+             "ely_fit_plant_json", "ely_fit_parameter", "ely_fit_destroy", "ely_block_reset", "ely_block_advance",
+             "ely_block_time", "ely_block_save_state", "ely_block_restore_state", "ely_block_simulate",
+             "ely_block_run_summary_json"}
 
 
 def _candidates():
@@ -224,6 +238,15 @@ def buffer_text(call, handle):
     buffer = ctypes.create_string_buffer(length.value)
     check(call(handle, buffer, length.value, ctypes.byref(length)))
     return buffer.value.decode("utf-8")
+
+
+def buffer_bytes(call, handle):
+    """The bytes a call of the buffer protocol gives without a terminator (ely_block_save_state)."""
+    length = ctypes.c_size_t()
+    check(call(handle, None, 0, ctypes.byref(length)))
+    buffer = ctypes.create_string_buffer(max(length.value, 1))
+    check(call(handle, buffer, length.value, ctypes.byref(length)))
+    return buffer.raw[:length.value]
 
 
 def check(status):

@@ -341,6 +341,92 @@ class Block:
         return fit(self, data, free, weights=weights, bounds=bounds, scales=scales, max_iterations=max_iterations,
                    tolerance=tolerance, progress=progress)
 
+    # -- the block in time (docs/dynamics.md) --
+    def _stepped(self, status):
+        self.warning = _capi.last_error() if status == errors.Status.WARNING else ""
+        if self.warning:
+            warnings.warn(errors.ElyWarning(self.warning), stacklevel=3)
+        return errors.Status(status)
+
+    def reset(self, start_time=0.0, inputs=None, /, *, spec=None, **keywords):
+        """Starts a dynamic run at ``start_time`` (s) from the current inputs, after setting the
+        ones given (as ``set``): the stack temperature takes ``in.temperature``, the operating
+        hours ``in.hours_operated``, and the plant is in the mode ``in.mode_request`` asks for (0
+        off, 1 hot standby, 2 production, 3 automatic), at its setpoint. Every output is valid for
+        that state (``ely_block_reset``). ``spec``: the spec of the run, if not the block's (as for
+        ``solve``). Returns ``Status.OK`` or ``Status.WARNING`` (an alarm raised, with an
+        ``ElyWarning``)."""
+        _capi.require("ely_block_reset", "Block.reset")
+        with self._lock:
+            if spec is not None:
+                self.set_spec(spec)
+            if inputs or keywords:
+                self.set(inputs, **keywords)
+            status = lib.ely_block_reset(self._live(), float(start_time))
+            _capi.check(status)
+            return self._stepped(status)
+
+    def advance(self, step, inputs=None, /, **keywords):
+        """Sets the inputs given (as ``set``; they apply at the current time) and integrates the run
+        over ``step`` seconds with the inputs held (``ely_block_advance``); the outputs are valid at
+        the end. A step of 0 only applies the inputs. A failed step raises and rolls the block back
+        to its state before the call (without the sets made since the last successful step).
+        ``WrongStateError`` before a ``reset``. Returns ``Status.OK`` or ``Status.WARNING``."""
+        _capi.require("ely_block_advance", "Block.advance")
+        with self._lock:
+            if inputs or keywords:
+                self.set(inputs, **keywords)
+            status = lib.ely_block_advance(self._live(), float(step))
+            _capi.check(status)
+            return self._stepped(status)
+
+    @property
+    def time(self):
+        """The time of the dynamic run, s (``WrongStateError`` before a ``reset``)."""
+        from .run import time_of
+        return time_of(self)
+
+    def save_state(self):
+        """Everything a later result of this block depends on, as bytes (``ely_block_save_state``):
+        a block of the same plant description and library that restores them continues bit for
+        bit as this one would."""
+        from .run import save_state
+        return save_state(self)
+
+    def restore_state(self, state):
+        """Takes a state from ``save_state`` of a block of the same plant description and library
+        version; another one raises ``InvalidArgumentError`` saying why, the block unchanged."""
+        from .run import restore_state
+        restore_state(self, state)
+
+    def simulate(self, profile, outputs, *, time="time", spec=None, with_status=False, progress=None):
+        """Runs the plant through a profile in one call (``ely_block_simulate``): the block is reset
+        at the first row's time with its inputs, then advanced row by row, each row's inputs applied
+        at its time; it is left running at the last row (``run_summary`` reports the run,
+        ``advance`` goes on from there).
+
+        ``profile``: a DataFrame or a mapping of names to equally long arrays, with a time column
+        (``time``, seconds, or with a unit: ``"time [h]"``) and input columns by name or keyword,
+        each optionally with a unit in brackets (``"in.power [MW]"``); see ``elyblock.run``.
+        ``outputs``: variable names. ``spec``: the spec of the run (default: the one that reads
+        the profile's drive column, if it has one; the block keeps it). Returns the time (s) and
+        the outputs per row, a DataFrame with the profile's index for a DataFrame, else a dict of
+        arrays; ``with_status=True`` adds the row statuses under "status". A run that stops at a
+        failing row gives NaN from there with an ``ElyWarning``. ``progress``: as ``batch`` (a bar
+        counts rows; Ctrl-C cancels and raises KeyboardInterrupt; a callable returning true raises
+        ``CancelledError`` with the partial result)."""
+        from .run import simulate
+        return simulate(self, profile, outputs, time=time, spec=spec, with_status=with_status, progress=progress)
+
+    def run_summary(self, full=False):
+        """What the run since the last ``reset`` made and used (``ely_block_run_summary_json``):
+        {figure: value in its unit} (hydrogen in kg, energy_dc and energy_ac in J, hours_* in h ... as
+        docs/dynamics.md lists them; NaN where not defined). ``full=True`` gives the library's whole
+        report: technology, name, start and end time, and per figure its value, unit, label and
+        display unit."""
+        from .run import run_summary
+        return run_summary(self, full)
+
     # -- batch --
     def batch(self, inputs, outputs, *, spec=None, with_status=False, progress=None):
         """Solves many operating points in one call (``ely_block_solve_batch``) without changing

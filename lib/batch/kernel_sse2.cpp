@@ -1,0 +1,9 @@
+// The PEM batch kernel for sse2 (see pem_kernel.hpp; CMake gives this file its instruction-set flags).
+#define ELY_LANES_NS sse2_lanes
+#include "batch/pem_kernel.hpp"
+
+namespace ely::batch {
+void pem_kernel_sse2(const PemConstants& k, const PemChunk& c) {
+    batch_kernel::pem_points<xsimd::batch<double, xsimd::sse2>>(k, c);
+}
+}  // namespace ely::batch
