@@ -7,6 +7,7 @@
     X(sweep)                 \
     X(run)                   \
     X(fit)                   \
+    X(fmu)                   \
     X(variables)             \
     X(water)                 \
     X(version)               \

@@ -135,7 +135,7 @@ def case_version_and_help():
 def case_usage_errors():
     expect_usage_error([], "elyblock: A subcommand is required (see 'elyblock --help')")
     expect_usage_error(["frobnicate"], "elyblock: unknown command 'frobnicate'; the commands are solve, sweep, "
-                                       "run, fit, variables, water, version (see 'elyblock --help')")
+                                       "run, fit, fmu, variables, water, version (see 'elyblock --help')")
     expect_usage_error(["solve"], "elyblock: solve: config is required (see 'elyblock solve --help')")
     expect_usage_error(["solve", DEMO, "--bogus"],
                        "elyblock: solve: The following argument was not expected: --bogus (see 'elyblock solve --help')")

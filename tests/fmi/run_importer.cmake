@@ -1,0 +1,11 @@
+# Unpacks an FMU into WORK_DIR (CMake's own archive reader) and runs the importer on it.
+file(REMOVE_RECURSE ${WORK_DIR})
+file(MAKE_DIRECTORY ${WORK_DIR})
+execute_process(COMMAND ${CMAKE_COMMAND} -E tar xf ${FMU} WORKING_DIRECTORY ${WORK_DIR} RESULT_VARIABLE rc)
+if(NOT rc EQUAL 0)
+  message(FATAL_ERROR "cannot unpack ${FMU}")
+endif()
+execute_process(COMMAND ${IMPORTER} ${VERSION} ${WORK_DIR} RESULT_VARIABLE rc)
+if(NOT rc EQUAL 0)
+  message(FATAL_ERROR "the importer found ${rc} failed checks (or could not run)")
+endif()
