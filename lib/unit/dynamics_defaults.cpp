@@ -138,7 +138,16 @@ void Block::settle_dynamic_defaults() {
         const auto excess = [&](double flow) { return coolant_heat(ua, cp, flow, inlet, setpoint).heat - target; };
         const double lo = target / (cp * span);
         double hi = 2 * lo;
-        while (excess(hi) < 0) hi *= 2;
+        // The heat taken grows with the flow towards UA·(T − T_in) > target, so a bracket exists; a
+        // conductance so small that the heat underflows has none (found by fuzzing: UA = 5e-324 W/K).
+        for (int doubling = 0; !(excess(hi) >= 0); ++doubling) {
+            if (!(lo > 0) || doubling > 2100 || !std::isfinite(hi))
+                throw Error(ErrorKind::infeasible,
+                            fmt::format("param.thermal.exchanger_ua = {:g} W/K: no coolant flow removes the plant's "
+                                        "heat at rated load ({:g} W) at its setpoint {:g} K",
+                                        ua, duty, setpoint));
+            hi *= 2;
+        }
         settle(in_coolant_flow, brent_root(excess, lo, hi, excess(lo), excess(hi), 1e-12 * hi));
     }
 }

@@ -584,3 +584,15 @@ TEST(DynamicsParameters, AutomaticValuesFollowTheParametersUntilSet) {
     EXPECT_EQ(set.get("in.coolant_flow"), 150.0);
     EXPECT_NE(set.get("param.thermal.exchanger_ua"), configured.get("param.thermal.exchanger_ua"));
 }
+
+TEST(DynamicsParameters, AConductanceTooSmallToCoolIsAnErrorThatChangesNothing) {
+    // Found by fuzzing: the search for the coolant flow of a set UA never ended when UA·(T − T_in)
+    // underflowed (UA = 5e-324 W/K). A set that no flow can meet is refused and undone.
+    Plant p(demo());
+    const double ua = p.get("param.thermal.exchanger_ua"), flow = p.get("in.coolant_flow");
+    for (double tiny : {5e-324, 1e-322}) {
+        expect_error([&] { p.set("param.thermal.exchanger_ua", tiny); }, ErrorKind::infeasible, "exchanger_ua");
+        EXPECT_EQ(p.get("param.thermal.exchanger_ua"), ua);
+        EXPECT_EQ(p.get("in.coolant_flow"), flow);
+    }
+}
