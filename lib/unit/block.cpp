@@ -354,14 +354,7 @@ void Block::roll_back() {
 void Block::commit_good_state() {
     has_solution_ = true;
     outputs_current_ = true;
-    last_good_ = v_;
-    last_good_spec_ = spec_;
-    last_good_rating_ = rectifier_rated_power_;
-    last_good_outputs_current_ = true;
-    if (last_good_cell_ != cell_) {
-        last_good_cell_ = cell_;
-        last_good_cell_values_ = cell_values_;
-    }
+    keep_state_for_rollback();
 }
 
 void Block::fill_steady_state_outputs() {
