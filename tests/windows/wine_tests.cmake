@@ -52,8 +52,14 @@ endif()
 # ely_wine_test(<name> <case> [args...]): runs `wine.sh <case> args...` with the cross build and
 # the prefix ready, or reports the test as skipped naming the missing tools.
 function(ely_wine_test name case)
+  ely_wine_script_test(${name} ${ELY_WINE_SCRIPT} ${case} ${ARGN})
+endfunction()
+
+# ely_wine_script_test(<name> <script> [args...]): the same for a bash script of another folder
+# (tests/fmi/wine_fmu.sh), with the same environment.
+function(ely_wine_script_test name script)
   if(ELY_WINE_SKIP_REASON STREQUAL "")
-    add_test(NAME ${name} COMMAND bash ${ELY_WINE_SCRIPT} ${case} ${ARGN})
+    add_test(NAME ${name} COMMAND bash ${script} ${ARGN})
     set_tests_properties(${name} PROPERTIES
       FIXTURES_REQUIRED "ely_windows_build;ely_wine_prefix" RESOURCE_LOCK wine TIMEOUT 600 SKIP_RETURN_CODE 77
       ENVIRONMENT "ELY_WINE=${ELY_WINE};ELY_WINESERVER=${ELY_WINESERVER};WINEPREFIX=${ELY_WINE_PREFIX};ELY_WINDOWS_BUILD=${ELY_WINDOWS_BUILD};ELY_SOURCE_DIR=${PROJECT_SOURCE_DIR};ELY_OBJDUMP=${ELY_MINGW_OBJDUMP};ELY_WORK_DIR=${CMAKE_CURRENT_BINARY_DIR}/${name}")
