@@ -15,6 +15,7 @@
 #define WIN32_LEAN_AND_MEAN
 #define NOGDI /* wingdi.h defines ERROR */
 #include <windows.h>
+#include <shellapi.h> /* CommandLineToArgvW */
 #else
 #define _DEFAULT_SOURCE /* realpath */
 #include <dlfcn.h>
@@ -46,6 +47,32 @@ static unsigned var_refs[MAX_VARS];
 static int n_vars = 0;
 static char token[128], identifier[128];
 
+/* A file named by a UTF-8 path (on Windows through its UTF-16 form: narrow paths are ANSI there). */
+static FILE* open_utf8(const char* path, const char* mode) {
+#ifdef _WIN32
+    wchar_t wide_path[8192], wide_mode[8];
+    if (!MultiByteToWideChar(CP_UTF8, 0, path, -1, wide_path, 8192) ||
+        !MultiByteToWideChar(CP_UTF8, 0, mode, -1, wide_mode, 8))
+        return NULL;
+    return _wfopen(wide_path, wide_mode);
+#else
+    return fopen(path, mode);
+#endif
+}
+
+/* The file: URI of an absolute path ("/dir" or, on Windows, "C:/dir"), every byte outside RFC
+ * 3986's unreserved characters, '/' and ':' percent-encoded (spaces, non-ASCII UTF-8 bytes). */
+static void file_uri(const char* path, char* uri, size_t size) {
+    size_t n = (size_t)snprintf(uri, size, "file://%s", path[0] == '/' ? "" : "/");
+    for (const unsigned char* c = (const unsigned char*)path; *c && n + 4 < size; ++c) {
+        if ((*c >= 'A' && *c <= 'Z') || (*c >= 'a' && *c <= 'z') || (*c >= '0' && *c <= '9') || strchr("-._~/:", *c))
+            uri[n++] = (char)*c;
+        else
+            n += (size_t)snprintf(uri + n, size - n, "%%%02X", *c);
+    }
+    uri[n] = 0;
+}
+
 #ifdef _WIN32
 /* The value of attribute `name` inside the tag [tag, end), into out; 0 when absent. */
 static int attribute(const char* tag, const char* end, const char* name, char* out, size_t size) {
@@ -64,7 +91,7 @@ static int attribute(const char* tag, const char* end, const char* name, char* o
 static void read_description(const char* dir) {
     char path[8192], value[128];
     snprintf(path, sizeof path, "%s/modelDescription.xml", dir);
-    FILE* f = fopen(path, "rb");
+    FILE* f = open_utf8(path, "rb");
     if (!f) {
         fprintf(stderr, "cannot read %s\n", path);
         exit(100);
@@ -378,19 +405,31 @@ int main(int argc, char** argv) {
     char dir[4096];
     char binary[8192], plant[8192];
 #ifdef _WIN32
-    /* Windows: an absolute path with '/' separators (as the URI wants them; Windows takes both). */
-    if (!_fullpath(dir, argv[2], sizeof dir)) {
-        fprintf(stderr, "no folder %s\n", argv[2]);
-        return 100;
+    /* Windows: the arguments as UTF-8 (from the UTF-16 command line), the folder as an absolute
+     * path with '/' separators (as the URI wants them; Windows takes both). */
+    static char utf8_args[4][4096];
+    int wide_argc = 0;
+    wchar_t** wide_argv = CommandLineToArgvW(GetCommandLineW(), &wide_argc);
+    if (!wide_argv || wide_argc != argc) return 100;
+    for (int i = 0; i < argc; ++i) {
+        wchar_t full[4096];
+        const wchar_t* arg = wide_argv[i];
+        if (i == 2 && _wfullpath(full, arg, 4096)) arg = full;
+        if (!WideCharToMultiByte(CP_UTF8, 0, arg, -1, utf8_args[i], 4096, NULL, NULL)) return 100;
+        argv[i] = utf8_args[i];
     }
+    LocalFree(wide_argv);
+    snprintf(dir, sizeof dir, "%s", argv[2]);
     for (char* c = dir; *c; ++c)
         if (*c == '\\') *c = '/';
     read_description(dir);
-    if (argc == 4 && !(values = fopen(argv[3], "w"))) return 100;
+    if (argc == 4 && !(values = open_utf8(argv[3], "w"))) return 100;
     snprintf(binary, sizeof binary, "%s/binaries/%s/%s.dll", dir, version == 2 ? "win64" : "x86_64-windows", identifier);
     snprintf(plant, sizeof plant, "%s/resources/plant.json", dir);
     if (version == 2) {
-        snprintf(resources, sizeof resources, "file:///%s/resources", dir); /* file:///Z:/dir/resources */
+        char resource_dir[8192];
+        snprintf(resource_dir, sizeof resource_dir, "%s/resources", dir);
+        file_uri(resource_dir, resources, sizeof resources); /* file:///Z:/dir/resources */
     } else {
         snprintf(resources, sizeof resources, "%s/resources/", dir); /* a native path, '\\' separators */
         for (char* c = resources; *c; ++c)
@@ -409,13 +448,16 @@ int main(int argc, char** argv) {
         return 100;
     }
     read_description(dir);
-    if (argc == 4 && !(values = fopen(argv[3], "w"))) return 100;
+    if (argc == 4 && !(values = open_utf8(argv[3], "w"))) return 100;
     snprintf(binary, sizeof binary, "%s/binaries/%s/%s.so", dir, version == 2 ? "linux64" : "x86_64-linux", identifier);
     snprintf(plant, sizeof plant, "%s/resources/plant.json", dir);
-    if (version == 2)
-        snprintf(resources, sizeof resources, "file://%s/resources", dir);
-    else
+    if (version == 2) {
+        char resource_dir[8192];
+        snprintf(resource_dir, sizeof resource_dir, "%s/resources", dir);
+        file_uri(resource_dir, resources, sizeof resources);
+    } else {
         snprintf(resources, sizeof resources, "%s/resources/", dir);
+    }
     lib = dlopen(binary, RTLD_NOW | RTLD_LOCAL);
     if (!lib) {
         fprintf(stderr, "dlopen %s: %s\n", binary, dlerror());

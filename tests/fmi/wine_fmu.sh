@@ -19,14 +19,17 @@ winpath() { local p; p=$(realpath -m "$1"); echo "Z:${p//\//\\}"; }
 
 [[ $version == 2 ]] && folder=win64 || folder=x86_64-windows
 work=$ELY_WORK_DIR
+# Unpacked where a tool may unpack it: a folder with spaces and non-ASCII letters (UTF-8 on Linux,
+# UTF-16 on Windows; the FMI 2 resource URI percent-encodes them).
+unpacked="$work/FMU – Anlage Ökostrom 電解"
 rm -rf "$work"
-mkdir -p "$work/unpacked"
-/usr/bin/python3 -m zipfile -e "$fmu" "$work/unpacked" || fail "cannot unpack $fmu"
-ls "$work/unpacked/binaries/$folder/"*.dll >/dev/null 2>&1 ||
+mkdir -p "$unpacked"
+/usr/bin/python3 -m zipfile -e "$fmu" "$unpacked" || fail "cannot unpack $fmu"
+ls "$unpacked/binaries/$folder/"*.dll >/dev/null 2>&1 ||
   fail "$fmu has no binaries/$folder/*.dll (ELY_FMU_WINDOWS packs it)"
 
 echo "# Linux: $linux_importer"
-"$linux_importer" "$version" "$work/unpacked" "$work/linux.txt" >"$work/linux.log" ||
+"$linux_importer" "$version" "$unpacked" "$work/linux.txt" >"$work/linux.log" ||
   { cat "$work/linux.log"; fail "the importer found failed checks on the Linux binary"; }
 tail -n 1 "$work/linux.log"
 
@@ -35,9 +38,9 @@ importer=$ELY_WINDOWS_BUILD/bin/fmi_importer.exe
 [[ -f $importer ]] || fail "no $importer (the Windows build, scripts/windows)"
 status=0
 (cd "$(dirname "$importer")" &&
-  timeout 300 "$ELY_WINE" ./fmi_importer.exe "$version" "$(winpath "$work/unpacked")" "$(winpath "$work/windows.txt")") |
+  timeout 300 "$ELY_WINE" ./fmi_importer.exe "$version" "$(winpath "$unpacked")" "$(winpath "$work/windows.txt")") |
   tr -d '\r' >"$work/windows.log" || status=$?
-grep -v '^ok - ' "$work/windows.log" || true
+grep -v '^ok - ' "$work/windows.log" || true  # the comments: binary, resource location, settled values
 [[ $status == 0 ]] || { cat "$work/windows.log"; fail "the importer found failed checks on the Windows binary (status $status)"; }
 grep -q '^0 failed$' "$work/windows.log" || fail "the Windows importer did not finish"
 echo "$(grep -c '^ok - ' "$work/windows.log") checks passed on the Windows binary"
