@@ -22,8 +22,10 @@ std::string package_fmu(const PackageOptions& options);
 /// The folders of binaries of an FMI version, 64-bit x86 Linux and Windows. FMI 3.0, section 2.5
 /// "FMU Distribution" (modelica/fmi-standard, docs/2_5_fmu_distribution.adoc): folders are named by
 /// the platform tuple <arch>-<sys>, "x86_64-linux" and "x86_64-windows"; its table "Platform Tuple
-/// Examples" gives the FMI 2.0 names of the same platforms, "linux64" and "win64" (as FMI 2.0.x,
-/// section 2.3 lists them: win32, win64, linux32, linux64, darwin32, darwin64; from memory).
+/// Examples" gives the FMI 2.0 names of the same platforms, "linux64" and "win64". FMI 2.0.x,
+/// section 2.3 "FMU Distribution" (docs/2_3_fmu_distribution.adoc): "The following names are
+/// standardized: for Windows: win32, win64 - for Linux: linux32, linux64, for Macintosh: darwin32,
+/// darwin64".
 const char* platform_folder(int fmi_version);
 const char* windows_platform_folder(int fmi_version);
 
