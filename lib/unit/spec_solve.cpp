@@ -10,6 +10,13 @@
 
 namespace ely {
 
+namespace {
+// Brent stops when the bracket is narrower than 4.4e-16·j + ½·kRootTolerance·j_max: the root to a few
+// ulps, so the answer does not depend on the bracket a warm start picked (a host that solved another
+// point before gets the same result to ~1e-15 as one that did not).
+constexpr double kRootTolerance = 1e-15;
+}  // namespace
+
 double Block::max_current_density(double temperature, double p_anode, double p_cathode) const {
     const double j_max = v_[par_current_density_max];
     return std::min(j_max, cell_->current_density_limit({j_max, temperature, p_anode, p_cathode}));
@@ -108,7 +115,7 @@ double Block::solve_current_density(double j_max) {
         fb = q_lo - target;
         a = 0.0;
         fa = q_0 - target;
-        return brent_root(f, a, b, fa, fb, 1e-13 * j_max);
+        return brent_root(f, a, b, fa, fb, kRootTolerance * j_max);
     }
     // Warm start: bracket around the last solution when it still brackets the root.
     if (last_current_density_ * 0.98 > j_lo && last_current_density_ * 1.02 < j_max) {
@@ -122,7 +129,7 @@ double Block::solve_current_density(double j_max) {
             b = lo; fb = flo;
         }
     }
-    return brent_root(f, a, b, fa, fb, 1e-13 * j_max);
+    return brent_root(f, a, b, fa, fb, kRootTolerance * j_max);
 }
 
 }  // namespace ely
