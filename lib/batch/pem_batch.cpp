@@ -198,17 +198,26 @@ PemBatch::PemBatch(const Block& block, int32_t n_inputs, const int32_t* input_in
         isa_ = candidate.name;
         break;
     }
-    work_.assign(kChunk * (5 + slot_var_.size()), 0.0);
+    for (Var v : slot_var_)
+        energy_ |= v == heat_duty || v == heat_gas_coolers || v == perf_efficiency_hhv || v == perf_efficiency_lhv;
+    for (std::size_t o = 0; o < sources_.size(); ++o) {
+        const Source& s = sources_[o];
+        if (s.kind == 0) from_kernel_.push_back({o, (5 + static_cast<std::size_t>(s.index)) * kStride});
+        else if (s.kind == 1) from_row_.push_back({o, static_cast<std::size_t>(s.index)});
+        else fixed_outputs_.push_back({o, s.constant});
+    }
+    work_.assign(kStride * (5 + slot_var_.size()), 0.0);
 }
 
 void PemBatch::run(const double* inputs, std::size_t first, std::size_t count, double* outputs, uint8_t* verdict) {
-    constexpr std::size_t n = kChunk;
+    // Columns kStride doubles apart: a multiple of the vector width, but not of 4 KiB, so that the
+    // sixteen-odd columns do not all fall on the same L1 cache sets.
+    constexpr std::size_t n = kStride;
     double* col[4] = {work_.data(), work_.data() + n, work_.data() + 2 * n, work_.data() + 3 * n};
     double* verdicts = work_.data() + 4 * n;
     PemChunk chunk{};
     chunk.spec = spec_;
-    for (Var v : slot_var_)
-        chunk.energy |= v == heat_duty || v == heat_gas_coolers || v == perf_efficiency_hhv || v == perf_efficiency_lhv;
+    chunk.energy = energy_;
     chunk.target = col[0];
     chunk.current_density = col[0];
     chunk.temperature = col[1];
@@ -222,36 +231,40 @@ void PemBatch::run(const double* inputs, std::size_t first, std::size_t count, d
     // Rows to columns; an input outside its limits (Block::set) goes to the scalar path.
     const auto ni = static_cast<std::size_t>(n_inputs_);
     std::fill(verdict, verdict + count, uint8_t{0});
-    for (int c = 0; c < 4; ++c)
-        if (column_[c] < 0) std::fill(col[c], col[c] + chunk.count, fixed_[c]);
-    for (std::size_t r = 0; r < chunk.count; ++r) {
-        const std::size_t row = first + std::min(r, count - 1);
-        const double* in = inputs + row * ni;
-        for (int c = 0; c < 4; ++c)
-            if (column_[c] >= 0) col[c][r] = in[column_[c]];
-    }
-    for (std::size_t i = 0; i < ni; ++i) {
-        const Limit& l = limits_[i];
-        for (std::size_t r = 0; r < count; ++r) {
-            const double x = inputs[(first + r) * ni + i];
-            if (!std::isfinite(x) || (l.min_exclusive ? !(x > l.min) : x < l.min) || x > l.max) verdict[r] = 2;
+    const double* rows = inputs + first * ni;
+    for (int c = 0; c < 4; ++c) {
+        double* dst = col[c];
+        if (column_[c] < 0) {
+            std::fill(dst, dst + chunk.count, fixed_[c]);
+            continue;
         }
+        const double* src = rows + column_[c];
+        const Limit& l = limits_[static_cast<std::size_t>(column_[c])];
+        for (std::size_t r = 0; r < count; ++r) {
+            const double x = src[r * ni];
+            dst[r] = x;
+            // Not finite or outside [min, max] (min exclusive where the variable says so).
+            const bool bad = !(std::fabs(x) <= std::numeric_limits<double>::max()) ||
+                             (l.min_exclusive ? !(x > l.min) : x < l.min) || x > l.max;
+            verdict[r] = static_cast<uint8_t>(verdict[r] | (bad ? 2 : 0));
+        }
+        for (std::size_t r = count; r < chunk.count; ++r) dst[r] = dst[count - 1];
     }
 
     kernel_(k_, chunk);
 
-    const auto no = static_cast<std::size_t>(n_outputs_);
-    for (std::size_t r = 0; r < count; ++r) {
+    for (std::size_t r = 0; r < count; ++r)
         if (verdict[r] == 0) verdict[r] = static_cast<uint8_t>(verdicts[r]);
-        if (verdict[r] == 2) continue;
-        if (no == 0) continue;
-        double* out = outputs + (first + r) * no;
-        const double* in = inputs + (first + r) * ni;
-        for (std::size_t o = 0; o < no; ++o) {
-            const Source& s = sources_[o];
-            out[o] = s.kind == 0 ? work_[(5 + static_cast<std::size_t>(s.index)) * n + r]
-                                 : s.kind == 1 ? in[s.index] : s.constant;
-        }
+    const auto no = static_cast<std::size_t>(n_outputs_);
+    if (no == 0 || !outputs) return;
+    // Every row's outputs are written; those of the points not taken are overwritten by the scalar path.
+    double* out_rows = outputs + first * no;
+    for (std::size_t r = 0; r < count; ++r) {
+        double* out = out_rows + r * no;
+        const double* in = rows + r * ni;
+        for (const Copy& cp : from_kernel_) out[cp.output] = work_[cp.offset + r];
+        for (const Copy& cp : from_row_) out[cp.output] = in[cp.offset];
+        for (const Fixed& f : fixed_outputs_) out[f.output] = f.value;
     }
 }
 

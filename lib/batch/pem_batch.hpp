@@ -24,6 +24,8 @@ class PemBatch {
 public:
     /// Points per kernel call; divides the progress interval of the C batch (1024).
     static constexpr std::size_t kChunk = 512;
+    /// Doubles between two columns of the workspace (kChunk and one cache line).
+    static constexpr std::size_t kStride = kChunk + 8;
 
     /// A batch on `block` (its state at the start of the batch) whose rows set the inputs
     /// input_indices and read output_indices. usable() tells whether the kernel applies: a PEM block
@@ -60,7 +62,17 @@ private:
     std::vector<Limit> limits_;         // per input column
     std::vector<Var> slot_var_;         // kernel outputs wanted, one slot each
     std::vector<Source> sources_;       // per output column
-    std::vector<double> work_;          // inputs, outputs and verdicts of one chunk (SoA)
+    struct Copy {        // output column `output` from the workspace (offset + row) or a row's input (offset)
+        std::size_t output, offset;
+    };
+    struct Fixed {
+        std::size_t output;
+        double value;
+    };
+    std::vector<Copy> from_kernel_, from_row_;
+    std::vector<Fixed> fixed_outputs_;
+    bool energy_ = false;               // an output asked for needs the energy balance
+    std::vector<double> work_;          // inputs, outputs and verdicts of one chunk (SoA, kStride apart)
 };
 
 }  // namespace ely::batch

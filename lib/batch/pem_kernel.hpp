@@ -137,10 +137,16 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
                 const M above = g > zero;
                 hi = select(above, x, hi);
                 lo = select(above, lo, x);
-                V next = x - g / dq;
-                next = select((next >= lo) && (next <= hi), next, 0.5 * (lo + hi));  // false for NaN too
+                const V newton = x - g / dq;
+                const M inside = (newton >= lo) && (newton <= hi);  // false for NaN too
+                V next = select(inside, newton, 0.5 * (lo + hi));
                 next = select(g == zero, x, next);
-                const M done = (lanes::abs(next - x) <= 2e-16 * next) || (g == zero) || !(hi - lo > 2e-16 * hi);
+                // Converged: a Newton step below 1e-9 x leaves an error of the order of (1e-9)² x·x q''/q'
+                // (quadratic convergence), below the rounding of the drive quantity; stopping at a step of
+                // a few ulp instead lets rounding noise bounce a lane inside its bracket for dozens of
+                // iterations. A bisection step counts only when the bracket has collapsed.
+                const M done = (inside && lanes::abs(next - x) <= 1e-9 * next) || (g == zero) ||
+                               !(hi - lo > 2e-16 * hi);
                 x = select(active, next, x);
                 active = active && !done;
             }

@@ -90,10 +90,10 @@ void run_batch(benchmark::State& state, const char* spec, const char* drive) {
 static void batch_peer_points_current_density(benchmark::State& state) {
     run_batch(state, "current_density", "in.current_density");
 }
-BENCHMARK(batch_peer_points_current_density)->Arg(100000)->Unit(benchmark::kMillisecond);
+BENCHMARK(batch_peer_points_current_density)->Arg(4096)->Arg(100000)->Unit(benchmark::kMillisecond);
 
 static void batch_peer_points_power(benchmark::State& state) { run_batch(state, "power", "in.power"); }
-BENCHMARK(batch_peer_points_power)->Arg(100000)->Unit(benchmark::kMillisecond);
+BENCHMARK(batch_peer_points_power)->Arg(4096)->Arg(100000)->Unit(benchmark::kMillisecond);
 
 // One point per call through the C interface, the temperature changing at every call (as a
 // co-simulation step or a host's own loop would set it): set + solve + get. The drive input moves
