@@ -110,18 +110,9 @@ double Block::solve_current_density(double j_max) {
         fa = q_0 - target;
         return brent_root(f, a, b, fa, fb, 1e-13 * j_max);
     }
-    // Warm start: bracket around the last solution when it still brackets the root.
-    if (last_current_density_ * 0.98 > j_lo && last_current_density_ * 1.02 < j_max) {
-        const double lo = last_current_density_ * 0.98, hi = last_current_density_ * 1.02;
-        const double flo = f(lo);
-        if (flo <= 0) {
-            const double fhi = f(hi);
-            if (fhi >= 0) { a = lo; b = hi; fa = flo; fb = fhi; }
-            else { a = hi; fa = fhi; }
-        } else {
-            b = lo; fb = flo;
-        }
-    }
+    // No warm start from the previous point: the bracket, and so the root and every digit of it, depend on
+    // this point alone (a block's answer does not depend on what it solved before, a batch's not on how its
+    // points are cut into pieces for threads).
     return brent_root(f, a, b, fa, fb, 1e-13 * j_max);
 }
 
