@@ -202,7 +202,10 @@ PemBatch::PemBatch(const Block& block, int32_t n_inputs, const int32_t* input_in
         energy_ |= v == heat_duty || v == heat_gas_coolers || v == perf_efficiency_hhv || v == perf_efficiency_lhv;
     for (std::size_t o = 0; o < sources_.size(); ++o) {
         const Source& s = sources_[o];
-        if (s.kind == 0) from_kernel_.push_back({o, (5 + static_cast<std::size_t>(s.index)) * kStride});
+        if (s.kind == 0) {
+            from_kernel_.push_back({o, (5 + static_cast<std::size_t>(s.index)) * kStride});
+            if (slot_column_.size() <= static_cast<std::size_t>(s.index)) slot_column_.push_back(o);  // its first column
+        }
         else if (s.kind == 1) from_row_.push_back({o, static_cast<std::size_t>(s.index)});
         else fixed_outputs_.push_back({o, s.constant});
     }
@@ -266,6 +269,75 @@ void PemBatch::run(const double* inputs, std::size_t first, std::size_t count, d
         for (const Copy& cp : from_row_) out[cp.output] = in[cp.offset];
         for (const Fixed& f : fixed_outputs_) out[f.output] = f.value;
     }
+}
+
+void PemBatch::run_columns(const double* const* inputs, std::size_t first, std::size_t count, double* const* outputs,
+                           uint8_t* verdict) {
+    constexpr std::size_t n = kStride;
+    double* col[4] = {work_.data(), work_.data() + n, work_.data() + 2 * n, work_.data() + 3 * n};
+    double* verdicts = work_.data() + 4 * n;
+    PemChunk chunk{};
+    chunk.spec = spec_;
+    chunk.energy = energy_;
+    chunk.verdict = verdicts;
+    chunk.count = (count + 7) / 8 * 8;
+    // Whole vectors straight from and into the caller's columns; a last part chunk through the workspace
+    // (the kernel reads and writes whole vectors).
+    const bool direct = chunk.count == count;
+    const double* in[4];
+    for (int c = 0; c < 4; ++c) {
+        if (column_[c] < 0) {
+            std::fill(col[c], col[c] + chunk.count, fixed_[c]);
+            in[c] = col[c];
+        } else if (direct) {
+            in[c] = inputs[column_[c]] + first;
+        } else {
+            const double* src = inputs[column_[c]] + first;
+            std::copy(src, src + count, col[c]);
+            std::fill(col[c] + count, col[c] + chunk.count, src[count - 1]);
+            in[c] = col[c];
+        }
+    }
+    chunk.target = in[0];
+    chunk.current_density = in[0];
+    chunk.temperature = in[1];
+    chunk.pressure_cathode = in[2];
+    chunk.pressure_anode = in[3];
+    for (std::size_t s = 0; s < slot_var_.size(); ++s)
+        chunk.out[slot_var_[s]] = direct ? outputs[slot_column_[s]] + first : work_.data() + (5 + s) * n;
+
+    // An input outside its limits (Block::set) goes to the scalar path.
+    std::fill(verdict, verdict + count, uint8_t{0});
+    for (std::size_t i = 0; i < static_cast<std::size_t>(n_inputs_); ++i) {
+        const Limit& l = limits_[i];
+        const double* x = inputs[i] + first;
+        for (std::size_t r = 0; r < count; ++r) {
+            const bool bad = !(std::fabs(x[r]) <= std::numeric_limits<double>::max()) ||
+                             (l.min_exclusive ? !(x[r] > l.min) : x[r] < l.min) || x[r] > l.max;
+            verdict[r] = static_cast<uint8_t>(verdict[r] | (bad ? 2 : 0));
+        }
+    }
+
+    kernel_(k_, chunk);
+
+    for (std::size_t r = 0; r < count; ++r)
+        if (verdict[r] == 0) verdict[r] = static_cast<uint8_t>(verdicts[r]);
+    // Every point's outputs are written; those of the points not taken are overwritten by the scalar path.
+    if (!direct)
+        for (std::size_t s = 0; s < slot_var_.size(); ++s) {
+            const double* src = work_.data() + (5 + s) * n;
+            std::copy(src, src + count, outputs[slot_column_[s]] + first);
+        }
+    for (const Copy& cp : from_kernel_) {
+        const std::size_t slot = (cp.offset / kStride) - 5;
+        const double* src = outputs[slot_column_[slot]] + first;
+        if (slot_column_[slot] != cp.output) std::copy(src, src + count, outputs[cp.output] + first);
+    }
+    for (const Copy& cp : from_row_) {
+        const double* src = inputs[cp.offset] + first;
+        std::copy(src, src + count, outputs[cp.output] + first);
+    }
+    for (const Fixed& f : fixed_outputs_) std::fill(outputs[f.output] + first, outputs[f.output] + first + count, f.value);
 }
 
 }  // namespace ely::batch

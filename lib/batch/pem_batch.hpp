@@ -41,6 +41,10 @@ public:
     /// verdict[r] for row first + r: 0 solved, 1 solved with an alarm raised, 2 not taken (solve it on
     /// the scalar path: an error, open circuit, standby, an input outside its limits...).
     void run(const double* inputs, std::size_t first, std::size_t count, double* outputs, uint8_t* verdict);
+    /// The same with the inputs and outputs as columns (inputs[i][row], outputs[o][row]): whole vectors
+    /// are read from and written into the caller's columns, without a copy.
+    void run_columns(const double* const* inputs, std::size_t first, std::size_t count, double* const* outputs,
+                     uint8_t* verdict);
 
 private:
     struct Source {      // where output o comes from
@@ -70,6 +74,7 @@ private:
         double value;
     };
     std::vector<Copy> from_kernel_, from_row_;
+    std::vector<std::size_t> slot_column_;  // per kernel slot, the first output column that asks for it
     std::vector<Fixed> fixed_outputs_;
     bool energy_ = false;               // an output asked for needs the energy balance
     std::vector<double> work_;          // inputs, outputs and verdicts of one chunk (SoA, kStride apart)

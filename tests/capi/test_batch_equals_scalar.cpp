@@ -333,3 +333,73 @@ TEST(BatchThreads, ProgressOnTheCallingThreadCancelAndArguments) {
     EXPECT_EQ(ely_block_solve_batch_threads(nullptr, 1, 4, ii, p.in.data(), 1, oi.data(), &v, &st, 2, nullptr, nullptr),
               ELY_ERR_INVALID_ARGUMENT);
 }
+
+// ely_block_solve_batch_columns: the same statuses, outputs (bit for bit) and return as the row-major call,
+// for the vectorized kernel (whole chunks straight into the columns, a last part chunk, an output asked for
+// twice, an input and a parameter as outputs) and for the scalar path (alkaline); bad arguments named.
+TEST(BatchColumns, EqualTheRowMajorCallBitForBit) {
+    for (const char* tech : {"pem", "alkaline"}) {
+        for (const char* spec : {"current_density", "power"}) {
+            Block b(capi_test::minimal_config(tech));
+            ASSERT_EQ(ely_block_set_spec(b.get(), spec), ELY_OK);
+            const bool power = std::string(spec) == "power";
+            const int32_t ii[] = {b.index(power ? "in.power" : "in.current_density"), b.index("in.temperature"),
+                                  b.index("in.pressure_cathode"), b.index("in.pressure_anode")};
+            std::vector<int32_t> oi = output_indices(b);
+            oi.push_back(b.index("cell.voltage"));  // twice
+            oi.push_back(b.index("in.temperature"));
+            oi.push_back(b.index("param.current_density_max"));
+            const size_t no = oi.size();
+            std::mt19937_64 rng(11);
+            std::uniform_real_distribution<double> u(0.0, 1.0);
+            Points p;
+            for (int k = 0; k < 1500; ++k)  // 2 whole chunks of 512 and a part one
+                p.add((power ? 4e5 : 2e4) * (0.02 + u(rng)), 313.15 + 40 * u(rng), 1e5 + 29e5 * u(rng), 1e5 + 2e5 * u(rng));
+            p.in[4 * 700 + 1] = 900.0;  // fails
+            p.in[4 * 1499] = 0.0;       // open circuit, in the part chunk
+            std::vector<double> rows(p.n * no);
+            std::vector<int32_t> st_rows(p.n), st_cols(p.n);
+            const int32_t rc_rows = ely_block_solve_batch(b.get(), p.n, 4, ii, p.in.data(), static_cast<int32_t>(no),
+                                                          oi.data(), rows.data(), st_rows.data(), nullptr, nullptr);
+            const std::string msg_rows = ely_last_error();
+            std::vector<std::vector<double>> in_cols(4, std::vector<double>(p.n)), out_cols(no, std::vector<double>(p.n));
+            for (size_t k = 0; k < p.n; ++k)
+                for (size_t i = 0; i < 4; ++i) in_cols[i][k] = p.in[4 * k + i];
+            std::vector<const double*> in_ptr;
+            std::vector<double*> out_ptr;
+            for (auto& c : in_cols) in_ptr.push_back(c.data());
+            for (auto& c : out_cols) out_ptr.push_back(c.data());
+            const int32_t rc_cols = ely_block_solve_batch_columns(b.get(), p.n, 4, ii, in_ptr.data(), static_cast<int32_t>(no),
+                                                                  oi.data(), out_ptr.data(), st_cols.data(), nullptr, nullptr);
+            const std::string what = std::string(tech) + " at " + spec;
+            EXPECT_EQ(rc_cols, rc_rows) << what;
+            EXPECT_EQ(ely_last_error(), msg_rows) << what;
+            EXPECT_EQ(rc_rows, ELY_PARTIAL) << what;
+            EXPECT_EQ(st_cols, st_rows) << what;
+            for (size_t k = 0; k < p.n; ++k)
+                for (size_t o = 0; o < no; ++o) {
+                    const double a = out_cols[o][k], c = rows[k * no + o];
+                    ASSERT_TRUE(a == c || (std::isnan(a) && std::isnan(c))) << what << " point " << k << " output " << o;
+                }
+        }
+    }
+    Block b(capi_test::minimal_config("pem"));
+    const int32_t ii[] = {b.index("in.current_density")};
+    const int32_t oi[] = {b.index("cell.voltage")};
+    double j = 1e4, v = 0;
+    const double* in_ptr[] = {&j};
+    double* out_ptr[] = {&v};
+    int32_t st = 0;
+    EXPECT_GE(ely_block_solve_batch_columns(b.get(), 1, 1, ii, in_ptr, 1, oi, out_ptr, &st, nullptr, nullptr), 0);
+    EXPECT_GT(v, 1.0);
+    const double* null_in[] = {nullptr};
+    EXPECT_EQ(ely_block_solve_batch_columns(b.get(), 1, 1, ii, null_in, 1, oi, out_ptr, &st, nullptr, nullptr),
+              ELY_ERR_INVALID_ARGUMENT);
+    EXPECT_THAT(std::string(ely_last_error()), ::testing::HasSubstr("input_columns[0] is NULL"));
+    EXPECT_EQ(ely_block_solve_batch_columns(b.get(), 1, 1, ii, in_ptr, 1, oi, nullptr, &st, nullptr, nullptr),
+              ELY_ERR_INVALID_ARGUMENT);
+    EXPECT_THAT(std::string(ely_last_error()), ::testing::HasSubstr("output_columns is NULL"));
+    EXPECT_EQ(ely_block_solve_batch_columns(b.get(), 0, 1, ii, nullptr, 1, oi, nullptr, nullptr, nullptr, nullptr), ELY_OK);
+    EXPECT_EQ(ely_block_solve_batch_columns(b.get(), 1, 1, oi, in_ptr, 1, oi, out_ptr, &st, nullptr, nullptr),
+              ELY_ERR_INVALID_ARGUMENT);  // an output as an input
+}
