@@ -198,8 +198,15 @@ PemBatch::PemBatch(const Block& block, int32_t n_inputs, const int32_t* input_in
         isa_ = candidate.name;
         break;
     }
-    for (Var v : slot_var_)
+    for (Var v : slot_var_) {
         energy_ |= v == heat_duty || v == heat_gas_coolers || v == perf_efficiency_hhv || v == perf_efficiency_lhv;
+        streams_ |= v == feed_water || v == perf_water_per_hydrogen || (v >= stream_cathode_mass_flow && v <= stream_dryer_loss_mass_flow);
+    }
+    for (int c = 0; c < 4; ++c)
+        if (column_[c] >= 0) {
+            const Limit& l = limits_[static_cast<std::size_t>(column_[c])];
+            input_limits_[c] = {true, l.min_exclusive, l.min, l.max};
+        }
     for (std::size_t o = 0; o < sources_.size(); ++o) {
         const Source& s = sources_[o];
         if (s.kind == 0) {
@@ -221,6 +228,8 @@ void PemBatch::run(const double* inputs, std::size_t first, std::size_t count, d
     PemChunk chunk{};
     chunk.spec = spec_;
     chunk.energy = energy_;
+    chunk.streams = streams_;
+    for (int c = 0; c < 4; ++c) chunk.limits[c] = input_limits_[c];
     chunk.target = col[0];
     chunk.current_density = col[0];
     chunk.temperature = col[1];
@@ -231,9 +240,8 @@ void PemBatch::run(const double* inputs, std::size_t first, std::size_t count, d
     // Whole vectors: the lanes past count repeat the last row.
     chunk.count = (count + 7) / 8 * 8;
 
-    // Rows to columns; an input outside its limits (Block::set) goes to the scalar path.
+    // Rows to columns (the kernel sends an input outside its limits to the scalar path).
     const auto ni = static_cast<std::size_t>(n_inputs_);
-    std::fill(verdict, verdict + count, uint8_t{0});
     const double* rows = inputs + first * ni;
     for (int c = 0; c < 4; ++c) {
         double* dst = col[c];
@@ -242,22 +250,13 @@ void PemBatch::run(const double* inputs, std::size_t first, std::size_t count, d
             continue;
         }
         const double* src = rows + column_[c];
-        const Limit& l = limits_[static_cast<std::size_t>(column_[c])];
-        for (std::size_t r = 0; r < count; ++r) {
-            const double x = src[r * ni];
-            dst[r] = x;
-            // Not finite or outside [min, max] (min exclusive where the variable says so).
-            const bool bad = !(std::fabs(x) <= std::numeric_limits<double>::max()) ||
-                             (l.min_exclusive ? !(x > l.min) : x < l.min) || x > l.max;
-            verdict[r] = static_cast<uint8_t>(verdict[r] | (bad ? 2 : 0));
-        }
+        for (std::size_t r = 0; r < count; ++r) dst[r] = src[r * ni];
         for (std::size_t r = count; r < chunk.count; ++r) dst[r] = dst[count - 1];
     }
 
     kernel_(k_, chunk);
 
-    for (std::size_t r = 0; r < count; ++r)
-        if (verdict[r] == 0) verdict[r] = static_cast<uint8_t>(verdicts[r]);
+    for (std::size_t r = 0; r < count; ++r) verdict[r] = static_cast<uint8_t>(verdicts[r]);
     const auto no = static_cast<std::size_t>(n_outputs_);
     if (no == 0 || !outputs) return;
     // Every row's outputs are written; those of the points not taken are overwritten by the scalar path.
@@ -279,6 +278,8 @@ void PemBatch::run_columns(const double* const* inputs, std::size_t first, std::
     PemChunk chunk{};
     chunk.spec = spec_;
     chunk.energy = energy_;
+    chunk.streams = streams_;
+    for (int c = 0; c < 4; ++c) chunk.limits[c] = input_limits_[c];
     chunk.verdict = verdicts;
     chunk.count = (count + 7) / 8 * 8;
     // Whole vectors straight from and into the caller's columns; a last part chunk through the workspace
@@ -306,22 +307,9 @@ void PemBatch::run_columns(const double* const* inputs, std::size_t first, std::
     for (std::size_t s = 0; s < slot_var_.size(); ++s)
         chunk.out[slot_var_[s]] = direct ? outputs[slot_column_[s]] + first : work_.data() + (5 + s) * n;
 
-    // An input outside its limits (Block::set) goes to the scalar path.
-    std::fill(verdict, verdict + count, uint8_t{0});
-    for (std::size_t i = 0; i < static_cast<std::size_t>(n_inputs_); ++i) {
-        const Limit& l = limits_[i];
-        const double* x = inputs[i] + first;
-        for (std::size_t r = 0; r < count; ++r) {
-            const bool bad = !(std::fabs(x[r]) <= std::numeric_limits<double>::max()) ||
-                             (l.min_exclusive ? !(x[r] > l.min) : x[r] < l.min) || x[r] > l.max;
-            verdict[r] = static_cast<uint8_t>(verdict[r] | (bad ? 2 : 0));
-        }
-    }
+    kernel_(k_, chunk);  // an input outside its limits (Block::set) goes to the scalar path
 
-    kernel_(k_, chunk);
-
-    for (std::size_t r = 0; r < count; ++r)
-        if (verdict[r] == 0) verdict[r] = static_cast<uint8_t>(verdicts[r]);
+    for (std::size_t r = 0; r < count; ++r) verdict[r] = static_cast<uint8_t>(verdicts[r]);
     // Every point's outputs are written; those of the points not taken are overwritten by the scalar path.
     if (!direct)
         for (std::size_t s = 0; s < slot_var_.size(); ++s) {

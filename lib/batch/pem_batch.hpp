@@ -77,6 +77,8 @@ private:
     std::vector<std::size_t> slot_column_;  // per kernel slot, the first output column that asks for it
     std::vector<Fixed> fixed_outputs_;
     bool energy_ = false;               // an output asked for needs the energy balance
+    bool streams_ = false;              // an output asked for needs the streams' water vapour
+    InputLimit input_limits_[4] = {};   // per kernel column (check false: the block's value)
     std::vector<double> work_;          // inputs, outputs and verdicts of one chunk (SoA, kStride apart)
 };
 

@@ -10,6 +10,8 @@
 //
 // Included only by kernel_*.cpp, each of which names its lane namespace and SIMD type first.
 #include <cstddef>
+#include <limits>
+#include <type_traits>
 
 #include "batch/lanes_simd.hpp"
 #include "batch/pem_kernel_types.hpp"
@@ -55,12 +57,30 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         const V t = V::load_unaligned(c.temperature + i);
         const V pc = V::load_unaligned(c.pressure_cathode + i);
         const V pa = V::load_unaligned(c.pressure_anode + i);
-        const auto put = [&](Var v, const V& x) {
-            if (double* o = c.out[v]) x.store_unaligned(o + i);
+        // An output asked for is stored; one not asked for is not computed (its expression is a lambda).
+        const auto put = [&](Var v, const auto& x) {
+            if (double* o = c.out[v]) {
+                if constexpr (std::is_invocable_v<decltype(x)>) {
+                    const V value = x();
+                    value.store_unaligned(o + i);
+                } else {
+                    x.store_unaligned(o + i);
+                }
+            }
         };
 
+        // The inputs' limits (Block::set refuses a value outside them, or not finite): the scalar path says so.
+        M skip = M(false);
+        const V per_point[4] = {c.spec == 0 ? j : V::load_unaligned(c.target + i), t, pc, pa};
+        for (int n = 0; n < 4; ++n) {
+            const batch::InputLimit& l = c.limits[n];
+            if (!l.check) continue;
+            const V x = per_point[n];
+            skip = skip || !(lanes::abs(x) <= std::numeric_limits<double>::max()) || x > l.max ||
+                   (l.min_exclusive ? !(x > l.min) : x < l.min);
+        }
         // Envelope (cell.cpp check_envelope): outside it the scalar solve fails; j = 0 is open circuit.
-        M skip = !(t >= k.t_min && t <= k.t_max && pa >= k.p_min && pa <= k.p_max && pc >= k.p_min && pc <= k.p_max);
+        skip = skip || !(t >= k.t_min && t <= k.t_max && pa >= k.p_min && pa <= k.p_max && pc >= k.p_min && pc <= k.p_max);
         if (c.spec == 0) skip = skip || !(j > zero && j <= k.j_max && j < k.limiting_current_density);
         // Keep the lanes that are not taken finite and inside every range (their results are dropped).
         const V ts = select(skip, V(0.5 * (k.t_min + k.t_max)), t);
@@ -180,9 +200,7 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         const V a_h2 = h2_crossing - 2.0 * o2_burnt;
         skip = skip || !(h2_net > zero) || !(a_o2 > zero);
         const V consumed_h2o = c_h2 + a_h2 - 0.0;
-        const V faraday = c_h2 / (js / (2.0 * F));
         const V h2_in_o2 = select(a_h2 > zero, a_h2 / (a_h2 + a_o2), zero);
-        const V o2_in_h2 = select(c_o2 > zero, c_o2 / (c_o2 + c_h2), zero);
         const V water_drag = k.drag * js / F;
 
         // ---- stack (spec_solve.cpp evaluate_at) ----
@@ -200,17 +218,21 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         const V t_cool = min(ts, V(k.gas_cooler_temperature));
         skip = skip || (t_cool < 298.0);  // below the hydrogen fit's range: the scalar solve fails
         const V tcs = select(skip, ts, t_cool);
-        const V p_sat_cool = kernel::saturation_pressure_eq30(tcs);
-        V dry[2], vapour_stack[2], vapour_out[2], condensate[2];
+        // The water vapour of the streams, where an output asked for needs it.
+        V dry[2] = {zero, zero}, vapour_stack[2] = {zero, zero}, vapour_out[2] = {zero, zero}, condensate[2] = {zero, zero};
         const V side_p[2] = {pcs, pas};
         const V side_h2[2] = {cathode_h2, anode_h2}, side_o2[2] = {cathode_o2, anode_o2};
-        for (int s = 0; s < 2; ++s) {
-            dry[s] = side_h2[s] + side_o2[s] + 0.0 + 0.0;
-            const V pv = 1.0 * p_sat;
-            vapour_stack[s] = select(dry[s] > zero, dry[s] * pv / (side_p[s] - pv), zero);
-            vapour_out[s] = select(dry[s] > zero && p_sat_cool < side_p[s],
-                                   min(vapour_stack[s], dry[s] * p_sat_cool / (side_p[s] - p_sat_cool)), vapour_stack[s]);
-            condensate[s] = vapour_stack[s] - vapour_out[s];
+        V p_sat_cool = zero;
+        if (c.streams || c.energy) {
+            p_sat_cool = kernel::saturation_pressure_eq30(tcs);
+            for (int s = 0; s < 2; ++s) {
+                dry[s] = side_h2[s] + side_o2[s] + 0.0 + 0.0;
+                const V pv = 1.0 * p_sat;
+                vapour_stack[s] = select(dry[s] > zero, dry[s] * pv / (side_p[s] - pv), zero);
+                vapour_out[s] = select(dry[s] > zero && p_sat_cool < side_p[s],
+                                       min(vapour_stack[s], dry[s] * p_sat_cool / (side_p[s] - p_sat_cool)), vapour_stack[s]);
+                condensate[s] = vapour_stack[s] - vapour_out[s];
+            }
         }
         const V drag = water_drag * area_total;
         const V drain = k.drag_returned ? zero : drag;
@@ -218,10 +240,12 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
 
         // ---- rectifier and auxiliaries (streams.cpp fill_outputs) ----
         const double rated = k.rectifier_rated_power;
-        const V x_load = rated > 0 ? V(power / rated) : zero;
-        const V rect_loss = rated * (k.rectifier_no_load + k.rectifier_linear * x_load + k.rectifier_quadratic * x_load * x_load);
-        const V aux = k.auxiliaries_fixed + k.auxiliaries_proportional * power;
-        const V plant_total = power + rect_loss + aux;
+        const auto rect_loss = [&] {
+            const V x_load = rated > 0 ? V(power / rated) : zero;
+            return V(rated * (k.rectifier_no_load + k.rectifier_linear * x_load + k.rectifier_quadratic * x_load * x_load));
+        };
+        const auto aux = [&] { return V(k.auxiliaries_fixed + k.auxiliaries_proportional * power); };
+        const auto plant_total = [&] { return V(power + rect_loss() + aux()); };
 
         // ---- energy balance (streams.cpp energy_balance), when an output asked for needs it ----
         const V loss = k.heat_loss_coefficient * k.stacks * (ts - k.ambient_temperature);
@@ -278,20 +302,20 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         put(cell_concentration, conc);
         put(cell_degradation, degradation);
         put(cell_current_density, js);
-        put(cell_faraday_efficiency, faraday);
+        put(cell_faraday_efficiency, [&] { return c_h2 / (js / (2.0 * F)); });
         put(cell_caustic_efficiency, one);
         put(cell_chlorine_efficiency, one);
         put(stack_current, stack_i);
         put(stack_voltage, stack_v);
         put(stack_power, power);
         put(plant_rectifier_loss, rect_loss);
-        put(plant_rectifier_efficiency, power / (power + rect_loss));
+        put(plant_rectifier_efficiency, [&] { return V(power / (power + rect_loss())); });
         put(plant_auxiliary_power, aux);
         put(plant_power, plant_total);
         const V h2_kg = cathode_h2 * M_H2;
         const V water_kg = makeup * M_H2O;
         put(product_hydrogen, h2_kg);
-        put(product_oxygen, anode_o2 * M_O2);
+        put(product_oxygen, [&] { return anode_o2 * M_O2; });
         put(product_chlorine, zero);
         put(product_caustic, zero);
         put(product_caustic_solution, zero);
@@ -301,38 +325,38 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         put(feed_sweep_air, zero);
         const V gas_c = dry[0] + vapour_out[0], gas_a = dry[1] + vapour_out[1];
         const auto frac = [&](const V& n, const V& total) { return select(total > zero, n / total, zero); };
-        put(stream_cathode_mass_flow, cathode_h2 * M_H2 + cathode_o2 * M_O2 + vapour_out[0] * M_H2O);
+        put(stream_cathode_mass_flow, [&] { return cathode_h2 * M_H2 + cathode_o2 * M_O2 + vapour_out[0] * M_H2O; });
         put(stream_cathode_temperature, tcs);
         put(stream_cathode_pressure, pcs);
-        put(stream_cathode_x_h2, frac(cathode_h2, gas_c));
-        put(stream_cathode_x_o2, frac(cathode_o2, gas_c));
-        put(stream_cathode_x_h2o, frac(vapour_out[0], gas_c));
-        put(stream_anode_mass_flow, anode_o2 * M_O2 + anode_h2 * M_H2 + 0.0 + 0.0 + vapour_out[1] * M_H2O);
+        put(stream_cathode_x_h2, [&] { return frac(cathode_h2, gas_c); });
+        put(stream_cathode_x_o2, [&] { return frac(cathode_o2, gas_c); });
+        put(stream_cathode_x_h2o, [&] { return frac(vapour_out[0], gas_c); });
+        put(stream_anode_mass_flow, [&] { return anode_o2 * M_O2 + anode_h2 * M_H2 + 0.0 + 0.0 + vapour_out[1] * M_H2O; });
         put(stream_anode_temperature, tcs);
         put(stream_anode_pressure, pas);
-        put(stream_anode_x_o2, frac(anode_o2, gas_a));
-        put(stream_anode_x_h2, frac(anode_h2, gas_a));
-        put(stream_anode_x_cl2, frac(zero, gas_a));
-        put(stream_anode_x_h2o, frac(vapour_out[1], gas_a));
-        put(stream_anode_x_n2, frac(zero, gas_a));
-        put(stream_condensate_mass_flow, condensate_total * M_H2O);
-        put(stream_drain_mass_flow, drain * M_H2O);
-        put(stream_dryer_loss_mass_flow, vapour_out[0] * M_H2O);
+        put(stream_anode_x_o2, [&] { return frac(anode_o2, gas_a); });
+        put(stream_anode_x_h2, [&] { return frac(anode_h2, gas_a); });
+        put(stream_anode_x_cl2, [&] { return frac(zero, gas_a); });
+        put(stream_anode_x_h2o, [&] { return frac(vapour_out[1], gas_a); });
+        put(stream_anode_x_n2, [&] { return frac(zero, gas_a); });
+        put(stream_condensate_mass_flow, [&] { return condensate_total * M_H2O; });
+        put(stream_drain_mass_flow, [&] { return drain * M_H2O; });
+        put(stream_dryer_loss_mass_flow, [&] { return vapour_out[0] * M_H2O; });
         put(gas_h2_in_o2, h2_in_o2);
-        put(gas_o2_in_h2, o2_in_h2);
+        put(gas_o2_in_h2, [&] { return select(c_o2 > zero, c_o2 / (c_o2 + c_h2), zero); });
         put(gas_o2_in_cl2, zero);
         put(heat_loss, loss);
         put(heat_duty, duty);
         put(heat_gas_coolers, gas_coolers);
         put(heat_feed_heating, zero);
         const V energy_in = power + 0.0 + max(zero, -duty);  // NaN without the energy balance (not stored then)
-        put(perf_specific_energy, power / h2_kg);
-        put(perf_specific_energy_plant, plant_total / h2_kg);
-        put(perf_efficiency_hhv, select(energy_in > zero, h2_kg * hhv / energy_in, zero));
-        put(perf_efficiency_lhv, select(energy_in > zero, h2_kg * lhv / energy_in, zero));
-        put(perf_water_per_hydrogen, water_kg / h2_kg);
+        put(perf_specific_energy, [&] { return power / h2_kg; });
+        put(perf_specific_energy_plant, [&] { return V(plant_total() / h2_kg); });
+        put(perf_efficiency_hhv, [&] { return select(energy_in > zero, h2_kg * hhv / energy_in, zero); });
+        put(perf_efficiency_lhv, [&] { return select(energy_in > zero, h2_kg * lhv / energy_in, zero); });
+        put(perf_water_per_hydrogen, [&] { return water_kg / h2_kg; });
         put(perf_specific_energy_chlorine, nan);
-        put(perf_load_fraction, js / k.rated_current_density);
+        put(perf_load_fraction, [&] { return js / k.rated_current_density; });
         put(perf_specific_energy_caustic, nan);
         put(perf_salt_per_chlorine, nan);
         put(perf_water_per_chlorine, nan);
