@@ -51,6 +51,22 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
     const double fixed_cool_h_o2 = kernel::shomate_enthalpy(*d.oxygen, 0.0, k.gas_cooler_temperature / 1000.0);
     const double hhv = -kLiquidWaterFormationEnthalpy / M_H2, lhv = -kWaterVapourFormationEnthalpy / M_H2;
     const double area_total = k.cells * k.stacks * k.area;
+    // Divisions by the batch's constants as products with their reciprocals (a vector division costs
+    // about ten products; the results move by an ulp or so, as the vector exp/log do).
+    const double inv_2F = 1.0 / (2.0 * F), inv_4F = 1.0 / (4.0 * F), inv_F = 1.0 / F, R_2F = R / (2.0 * F);
+    const double R_F_alpha_a = R / (F * k.alpha_anode), R_F_alpha_c = R / (F * k.alpha_cathode);
+    const double inv_p0 = 1.0 / kStandardPressure, inv_thickness = 1.0 / k.thickness;
+    const double inv_jl = 1.0 / k.limiting_current_density;
+    // NIST Shomate enthalpy and entropy (thermo_kernels.hpp shomate_enthalpy, shomate_entropy) with the
+    // divisions by t, t² and 3 as products with 1/t and 1/3.
+    const auto shomate_h = [](const ShomateCoefficients& s, const V& t, const V& t2, const V& t3, const V& t4,
+                              const V& inv_t) {
+        return 1000.0 * (s.A * t + s.B * t2 * 0.5 + s.C * t3 * (1.0 / 3.0) + s.D * t4 * 0.25 - s.E * inv_t + s.F - s.H);
+    };
+    const auto shomate_s = [](const ShomateCoefficients& s, const V& t, const V& t2, const V& t3, const V& inv_t2,
+                              const V& log_t) {
+        return s.A * log_t + s.B * t + s.C * t2 * 0.5 + s.D * t3 * (1.0 / 3.0) - s.E * 0.5 * inv_t2 + s.G;
+    };
 
     for (std::size_t i = 0; i < c.count; i += W) {
         const V j = V::load_unaligned(c.current_density + i);
@@ -90,10 +106,12 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         // ---- thermodynamics at the stack temperature (reaction.cpp, water.cpp, species.cpp) ----
         const V p_sat = kernel::saturation_pressure_eq30(ts);
         skip = skip || !(pcs > p_sat) || !(pas > p_sat);
-        const V tt = ts / 1000.0;
+        const V inv_t = 1.0 / ts;
+        const V tt = ts * 1e-3, inv_tt = 1000.0 * inv_t;
+        const V tt2 = tt * tt, tt3 = tt2 * tt, tt4 = tt3 * tt, inv_tt2 = inv_tt * inv_tt;
         const V log_tt = log(tt);
-        const V h_h2 = kernel::shomate_enthalpy(*d.hydrogen, 0.0, tt), s_h2 = kernel::shomate_entropy(*d.hydrogen, tt, log_tt);
-        const V h_o2 = kernel::shomate_enthalpy(*d.oxygen, 0.0, tt), s_o2 = kernel::shomate_entropy(*d.oxygen, tt, log_tt);
+        const V h_h2 = shomate_h(*d.hydrogen, tt, tt2, tt3, tt4, inv_tt), s_h2 = shomate_s(*d.hydrogen, tt, tt2, tt3, inv_tt2, log_tt);
+        const V h_o2 = shomate_h(*d.oxygen, tt, tt2, tt3, tt4, inv_tt), s_o2 = shomate_s(*d.oxygen, tt, tt2, tt3, inv_tt2, log_tt);
         const auto stack_part = kernel::region1_temperature(ts, false);
         const auto w = kernel::region1_enthalpy_entropy(stack_part, max(V(kStandardPressure), p_sat));
         const V h_w = d.liquid_formation_enthalpy + M_H2O * (w.enthalpy - d.region1_h_ref);
@@ -102,19 +120,19 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         const V ds = s_h2 + 0.5 * s_o2 - s_w;
         const V dg = dh - ts * ds;
         const V p_h2 = pcs - p_sat, p_o2 = pas - p_sat;
-        const V e0 = dg / (2 * F);
-        const V q = (p_h2 / kStandardPressure) * lanes::sqrt(p_o2 / kStandardPressure) / 1.0;
-        const V e_rev = e0 + R * ts / (2.0 * F) * log(q);
-        const V e_tn = dh / (2 * F);
+        const V e0 = dg * inv_2F;
+        const V q = (p_h2 * inv_p0) * lanes::sqrt(p_o2 * inv_p0);
+        const V rt_2f = R_2F * ts;
+        const V e_rev = e0 + rt_2f * log(q);
+        const auto e_tn = [&] { return V(dh * inv_2F); };
 
         // ---- cell (pem.cpp evaluate) ----
-        const V inv_t = 1.0 / ts;
         const V x_t = inv_t - k.inverse_reference_temperature;
-        const V f = F / (R * ts);
         const V j0a = k.j0_anode * exp(k.ea_anode * x_t);
         const V j0c = k.j0_cathode * exp(k.ea_cathode * x_t);
         const V sigma = k.sigma_303_percent * exp(1268.0 * (1.0 / 303.0 - inv_t));
         const V asr = k.thickness / sigma + k.contact_resistance;
+        const V b_a = R_F_alpha_a * ts, b_c = R_F_alpha_c * ts;  // Tafel slopes RT/(αF)
         // The spec solves (spec_solve.cpp): the current density at which the stack power or the cell
         // voltage meets the drive value, by Newton on the analytic derivative of the voltage, safeguarded
         // by bisection in [0, j_max] per lane; converged to a few ulp (the scalar path's Brent stops at
@@ -126,9 +144,10 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         } else {
             const V target = V::load_unaligned(c.target + i);
             const double kp = k.area * k.stacks * k.cells;
-            const V ba = 1.0 / (k.alpha_anode * f), bc = 1.0 / (k.alpha_cathode * f);
+            const V ba = b_a, bc = b_c;
             const V two_j0a = 2.0 * j0a, two_j0c = 2.0 * j0c;
-            const V b_conc = R * ts / (2 * F);
+            const V inv_two_j0a = 1.0 / two_j0a, inv_two_j0c = 1.0 / two_j0c;
+            const V b_conc = rt_2f;
             const double r_deg = k.degradation_resistance * k.hours, v_deg = k.degradation_voltage * k.hours;
             // asinh(x/a) = ln((x + √(x² + a²))/a) for x >= 0, sharing the root with the derivative; the
             // concentration term as ln((j_lim − x)/j_lim). The iteration converges to the root of this
@@ -136,9 +155,11 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
             const double jl = k.limiting_current_density;
             const auto quantity = [&](const V& x, V& dq) {
                 const V sa = lanes::sqrt(x * x + two_j0a * two_j0a), sc = lanes::sqrt(x * x + two_j0c * two_j0c);
-                const V v = e_rev + log((x + sa) / two_j0a) * ba + log((x + sc) / two_j0c) * bc + x * asr + v_deg +
-                            r_deg * x - b_conc * log((jl - x) / jl);
-                const V dv = ba / sa + bc / sc + asr + r_deg + b_conc / (jl - x);
+                const V v = e_rev + log((x + sa) * inv_two_j0a) * ba + log((x + sc) * inv_two_j0c) * bc + x * asr + v_deg +
+                            r_deg * x - b_conc * log((jl - x) * inv_jl);
+                // One division for the three: ba/sa + bc/sc + b_conc/(jl − x).
+                const V rest = jl - x;
+                const V dv = (ba * sc * rest + bc * sa * rest + b_conc * (sa * sc)) / (sa * sc * rest) + asr + r_deg;
                 if (c.spec == 1) {
                     dq = kp * (v + x * dv);
                     return kp * x * v;
@@ -175,20 +196,20 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
             skip = skip || !(x < k.j_spec_max * (1.0 - 4e-16));
             js = x;
         }
-        const V conc = -R * ts / (2 * F) * lanes::log1p(-js / k.limiting_current_density);
-        const V act_a = lanes::asinh(js / (2.0 * j0a)) / (k.alpha_anode * f);
-        const V act_c = lanes::asinh(js / (2.0 * j0c)) / (k.alpha_cathode * f);
-        const V ohmic_cell = js * (k.thickness / sigma + k.contact_resistance);
+        const V conc = -rt_2f * lanes::log1p(-js * inv_jl);
+        const V act_a = lanes::asinh(js / (2.0 * j0a)) * b_a;
+        const V act_c = lanes::asinh(js / (2.0 * j0c)) * b_c;
+        const V ohmic_cell = js * asr;
         M extrapolated = (ts < k.t_fit_min) || (ts > k.t_fit_max) || (js > 0.95 * k.limiting_current_density);
 
         // Crossover (pem.cpp crossover, electrochem/crossover.cpp) and the gases (cell_support.cpp).
         const V h2_perm = k.h2_permeability * exp(k.h2_ea * x_t);
-        const V h2_x = select(p_h2 <= zero, zero, h2_perm * p_h2 / k.thickness) +
-                       select((pcs - pas) <= zero || p_h2 <= zero, zero, k.darcy * p_h2 * (pcs - pas) / k.thickness);
+        const V h2_x = select(p_h2 <= zero, zero, h2_perm * p_h2 * inv_thickness) +
+                       select((pcs - pas) <= zero || p_h2 <= zero, zero, k.darcy * p_h2 * (pcs - pas) * inv_thickness);
         const V o2_perm = k.o2_permeability * exp(k.o2_ea * x_t);
-        const V o2_x = select(p_o2 <= zero, zero, o2_perm * p_o2 / k.thickness);
-        const V h2_per_j = h2_perm * k.supersaturation / k.thickness;
-        const V h2_made = js / (2.0 * F), o2_made = js / (4.0 * F);
+        const V o2_x = select(p_o2 <= zero, zero, o2_perm * p_o2 * inv_thickness);
+        const V h2_per_j = h2_perm * k.supersaturation * inv_thickness;
+        const V h2_made = js * inv_2F, o2_made = js * inv_4F;
         const V h2_crossing = h2_x + h2_per_j * js;
         const V o2_burnt = min(0.5 * k.recombination_anode * h2_crossing, o2_made);
         const V o2_crossing = min(o2_x, o2_made - o2_burnt);
@@ -201,7 +222,7 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         skip = skip || !(h2_net > zero) || !(a_o2 > zero);
         const V consumed_h2o = c_h2 + a_h2 - 0.0;
         const V h2_in_o2 = select(a_h2 > zero, a_h2 / (a_h2 + a_o2), zero);
-        const V water_drag = k.drag * js / F;
+        const V water_drag = k.drag * js * inv_F;
 
         // ---- stack (spec_solve.cpp evaluate_at) ----
         const V degradation = k.degradation_voltage * k.hours + k.degradation_resistance * k.hours * js;
@@ -302,7 +323,7 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         put(cell_concentration, conc);
         put(cell_degradation, degradation);
         put(cell_current_density, js);
-        put(cell_faraday_efficiency, [&] { return c_h2 / (js / (2.0 * F)); });
+        put(cell_faraday_efficiency, [&] { return V(c_h2 / h2_made); });
         put(cell_caustic_efficiency, one);
         put(cell_chlorine_efficiency, one);
         put(stack_current, stack_i);
