@@ -22,7 +22,12 @@
 ELY_KERNEL_BEGIN
 namespace batch_kernel {
 
+// Everything it calls inlined (flatten): the vector exp, log, log1p and the IF97 sums of one vector of points
+// are independent chains the processor then overlaps, where calls run them one after the other.
 template <class V>
+#if defined(__GNUC__)
+__attribute__((flatten))
+#endif
 inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
     using lanes::exp;
     using lanes::log;
