@@ -56,6 +56,10 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
     const double fixed_cool_h_o2 = kernel::shomate_enthalpy(*d.oxygen, 0.0, k.gas_cooler_temperature / 1000.0);
     const double hhv = -kLiquidWaterFormationEnthalpy / M_H2, lhv = -kWaterVapourFormationEnthalpy / M_H2;
     const double area_total = k.cells * k.stacks * k.area;
+    struct Thermal {  // the terms of the stack temperature alone, for the lanes' temperatures ts
+        V ts, p_sat, inv_t, h_h2, h_o2, dh, e0, j0a, j0c, sigma, asr, h2_perm, o2_perm;
+    } th{};  // once per chunk
+    bool have_thermal = false;
     // Divisions by the batch's constants as products with their reciprocals (a vector division costs
     // about ten products; the results move by an ulp or so, as the vector exp/log do).
     const double inv_2F = 1.0 / (2.0 * F), inv_4F = 1.0 / (4.0 * F), inv_F = 1.0 / F, R_2F = R / (2.0 * F);
@@ -108,35 +112,47 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         const V pcs = select(skip, V(k.p_max), pc);
         const V pas = select(skip, V(k.p_max), pa);
 
-        // ---- thermodynamics at the stack temperature (reaction.cpp, water.cpp, species.cpp) ----
-        const V p_sat = kernel::saturation_pressure_eq30(ts);
+        // ---- the terms of the stack temperature alone: thermodynamics (reaction.cpp, water.cpp,
+        // species.cpp) and the cell's Arrhenius factors (pem.cpp). Once per distinct temperature: kept
+        // from the previous vector when every lane has its temperature (a sweep at one temperature, a
+        // profile's runs), else computed (one compare when every point has its own).
+        if (!(have_thermal && lanes::all_lanes(ts == th.ts))) {
+            have_thermal = true;
+            th.ts = ts;
+            th.p_sat = kernel::saturation_pressure_eq30(ts);
+            th.inv_t = 1.0 / ts;
+            const V tt = ts * 1e-3, inv_tt = 1000.0 * th.inv_t;
+            const V tt2 = tt * tt, tt3 = tt2 * tt, tt4 = tt3 * tt, inv_tt2 = inv_tt * inv_tt;
+            const V log_tt = log(tt);
+            th.h_h2 = shomate_h(*d.hydrogen, tt, tt2, tt3, tt4, inv_tt);
+            th.h_o2 = shomate_h(*d.oxygen, tt, tt2, tt3, tt4, inv_tt);
+            const V s_h2 = shomate_s(*d.hydrogen, tt, tt2, tt3, inv_tt2, log_tt);
+            const V s_o2 = shomate_s(*d.oxygen, tt, tt2, tt3, inv_tt2, log_tt);
+            const auto w = kernel::region1_enthalpy_entropy(kernel::region1_temperature(ts, false),
+                                                            max(V(kStandardPressure), th.p_sat));
+            const V h_w = d.liquid_formation_enthalpy + M_H2O * (w.enthalpy - d.region1_h_ref);
+            const V s_w = d.liquid_entropy_298 + M_H2O * (w.entropy - d.region1_s_ref);
+            th.dh = th.h_h2 + 0.5 * th.h_o2 - h_w;
+            const V ds = s_h2 + 0.5 * s_o2 - s_w;
+            th.e0 = (th.dh - ts * ds) * inv_2F;
+            const V x_t = th.inv_t - k.inverse_reference_temperature;
+            th.j0a = k.j0_anode * exp(k.ea_anode * x_t);
+            th.j0c = k.j0_cathode * exp(k.ea_cathode * x_t);
+            th.sigma = k.sigma_303_percent * exp(1268.0 * (1.0 / 303.0 - th.inv_t));
+            th.asr = k.thickness / th.sigma + k.contact_resistance;
+            th.h2_perm = k.h2_permeability * exp(k.h2_ea * x_t);
+            th.o2_perm = k.o2_permeability * exp(k.o2_ea * x_t);
+        }
+        const V p_sat = th.p_sat, h_h2 = th.h_h2, h_o2 = th.h_o2, dh = th.dh, e0 = th.e0;
+        const V j0a = th.j0a, j0c = th.j0c, asr = th.asr, h2_perm = th.h2_perm, o2_perm = th.o2_perm;
         skip = skip || !(pcs > p_sat) || !(pas > p_sat);
-        const V inv_t = 1.0 / ts;
-        const V tt = ts * 1e-3, inv_tt = 1000.0 * inv_t;
-        const V tt2 = tt * tt, tt3 = tt2 * tt, tt4 = tt3 * tt, inv_tt2 = inv_tt * inv_tt;
-        const V log_tt = log(tt);
-        const V h_h2 = shomate_h(*d.hydrogen, tt, tt2, tt3, tt4, inv_tt), s_h2 = shomate_s(*d.hydrogen, tt, tt2, tt3, inv_tt2, log_tt);
-        const V h_o2 = shomate_h(*d.oxygen, tt, tt2, tt3, tt4, inv_tt), s_o2 = shomate_s(*d.oxygen, tt, tt2, tt3, inv_tt2, log_tt);
-        const auto stack_part = kernel::region1_temperature(ts, false);
-        const auto w = kernel::region1_enthalpy_entropy(stack_part, max(V(kStandardPressure), p_sat));
-        const V h_w = d.liquid_formation_enthalpy + M_H2O * (w.enthalpy - d.region1_h_ref);
-        const V s_w = d.liquid_entropy_298 + M_H2O * (w.entropy - d.region1_s_ref);
-        const V dh = h_h2 + 0.5 * h_o2 - h_w;
-        const V ds = s_h2 + 0.5 * s_o2 - s_w;
-        const V dg = dh - ts * ds;
         const V p_h2 = pcs - p_sat, p_o2 = pas - p_sat;
-        const V e0 = dg * inv_2F;
         const V q = (p_h2 * inv_p0) * lanes::sqrt(p_o2 * inv_p0);
         const V rt_2f = R_2F * ts;
         const V e_rev = e0 + rt_2f * log(q);
         const auto e_tn = [&] { return V(dh * inv_2F); };
 
         // ---- cell (pem.cpp evaluate) ----
-        const V x_t = inv_t - k.inverse_reference_temperature;
-        const V j0a = k.j0_anode * exp(k.ea_anode * x_t);
-        const V j0c = k.j0_cathode * exp(k.ea_cathode * x_t);
-        const V sigma = k.sigma_303_percent * exp(1268.0 * (1.0 / 303.0 - inv_t));
-        const V asr = k.thickness / sigma + k.contact_resistance;
         const V b_a = R_F_alpha_a * ts, b_c = R_F_alpha_c * ts;  // Tafel slopes RT/(αF)
         // The spec solves (spec_solve.cpp): the current density at which the stack power or the cell
         // voltage meets the drive value, by Newton on the analytic derivative of the voltage, safeguarded
@@ -208,10 +224,8 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         M extrapolated = (ts < k.t_fit_min) || (ts > k.t_fit_max) || (js > 0.95 * k.limiting_current_density);
 
         // Crossover (pem.cpp crossover, electrochem/crossover.cpp) and the gases (cell_support.cpp).
-        const V h2_perm = k.h2_permeability * exp(k.h2_ea * x_t);
         const V h2_x = select(p_h2 <= zero, zero, h2_perm * p_h2 * inv_thickness) +
                        select((pcs - pas) <= zero || p_h2 <= zero, zero, k.darcy * p_h2 * (pcs - pas) * inv_thickness);
-        const V o2_perm = k.o2_permeability * exp(k.o2_ea * x_t);
         const V o2_x = select(p_o2 <= zero, zero, o2_perm * p_o2 * inv_thickness);
         const V h2_per_j = h2_perm * k.supersaturation * inv_thickness;
         const V h2_made = js * inv_2F, o2_made = js * inv_4F;
@@ -304,7 +318,7 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
             V h_out = zero;
             for (int s = 0; s < 2; ++s) h_out = h_out + (h_gas_stack[s] + vapour_stack[s] * h_vapour);
             if (!k.drag_returned) {
-                const V h_liquid_stack = liquid_enthalpy(stack_part, max(p_liquid, p_sat));
+                const V h_liquid_stack = liquid_enthalpy(kernel::region1_temperature(ts, false), max(p_liquid, p_sat));
                 h_out = h_out + select(drain > zero, drain * h_liquid_stack, zero);
             }
             const V released = power + h_in - h_out;

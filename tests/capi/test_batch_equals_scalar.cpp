@@ -226,6 +226,29 @@ TEST(BatchEqualsScalar, PemKernelOverAStudysRanges) {
     }
 }
 
+// The kernel keeps the terms of the stack temperature alone from one vector of points to the next when
+// every point of the vector has the previous one's temperature: points in runs at one temperature (runs
+// of 37, across the vectors' boundaries), with failing points among them, against the scalar path.
+TEST(BatchEqualsScalar, PemKernelRunsAtOneTemperature) {
+    const std::string config = capi_test::minimal_config("pem");
+    for (int spec : {0, 2}) {
+        Block batch(config), scalar(config), at_j(config);
+        ASSERT_EQ(ely_block_set_spec(batch.get(), kSpecs[spec]), ELY_OK);
+        ASSERT_EQ(ely_block_set_spec(scalar.get(), kSpecs[spec]), ELY_OK);
+        std::mt19937_64 rng(31);
+        std::uniform_real_distribution<double> j(500.0, 3.0e4), t(303.15, 363.15), pc(1e5, 40e5), pa(1e5, 3e5),
+            power(8e3, 6e5);
+        Points p;
+        double temperature = t(rng);
+        for (int k = 0; k < 1200; ++k) {
+            if (k % 37 == 0) temperature = t(rng);
+            p.add(spec == 0 ? j(rng) : power(rng), k % 101 == 50 ? 900.0 : temperature, pc(rng), pa(rng));
+        }
+        compare(batch, scalar, kDrive[spec], p, std::string("pem runs at one temperature at ") + kSpecs[spec],
+                spec == 0 ? nullptr : "stack.power", &at_j);
+    }
+}
+
 // ely_block_solve_batch_threads: the same statuses as the single-thread call and outputs to 1e-12 (its
 // pieces' first warning points go to the scalar path), identical for every thread count; progress on
 // the calling thread, cancelling, a bad thread count.
