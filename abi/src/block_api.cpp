@@ -99,9 +99,9 @@ struct BatchTally {
 // Points [first, last) in order on a working copy of the block at the start of the batch, which returns
 // to that state after a failed point (not to the block's last successful solve: inputs, parameters and
 // the spec set since then hold for every point). The vectorized batch (lib/batch) where it applies, in
-// chunks that divide the progress interval; a point it does not take, and the first that raises an
-// alarm (for its message), on the scalar path. Points are independent at the specs it covers (a spec
-// solve's warm start moves the scalar path's answer only within its tolerance), so the order of the
+// chunks that divide the progress interval (a point it solves with alarms raised gets the scalar path's
+// message from the kernel's alarms); a point it does not take on the scalar path. Points are independent
+// (a point's answer depends on its own inputs alone, spec solves included), so the order of the
 // working copy's solves is moot. after_point(k) is asked after point k whether to go on; the index of
 // the first point not solved is returned.
 template <class AfterPoint>
@@ -134,9 +134,15 @@ size_t solve_rows(const BatchArgs& a, size_t first, size_t last, BatchTally& tal
         }
         const uint8_t v = fast ? verdict[k - chunk_first] : 2;
         int32_t status;
-        if (v == 0) status = ELY_OK;
-        else if (v == 1 && !tally.first_warning.empty()) status = ELY_WARNING;
-        else status = solve_scalar(k);
+        if (v == 0) {
+            status = ELY_OK;
+        } else if (v >= 4) {  // solved by the kernel with alarms raised: the scalar path's message
+            status = ELY_WARNING;
+            if (tally.first_warning.empty())
+                tally.first_warning = "point " + std::to_string(k) + ": " + ely::batch::PemBatch::alarm_message(v - 4u);
+        } else {
+            status = solve_scalar(k);
+        }
         a.point_status[k] = status;
         if (status < 0 && tally.first_failure.empty())
             tally.first_failure = "point " + std::to_string(k) + ": " + ely_last_error();

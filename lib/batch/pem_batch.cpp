@@ -66,6 +66,21 @@ bool kernel_gives(Var v) {
 
 }  // namespace
 
+std::string PemBatch::alarm_message(unsigned alarm_bits) {
+    // As Block::alarm_message (unit/alarms.cpp): the labels of the alarms raised, the trip level
+    // instead of the warning level.
+    std::string m = "solved with alarms:";
+    const char* separator = " ";
+    for (int a = alarm_first; a <= alarm_last; ++a) {
+        if (!(alarm_bits & (1u << (a - alarm_first)))) continue;
+        if (a == alarm_h2_in_o2_warning && (alarm_bits & (1u << (alarm_h2_in_o2_trip - alarm_first)))) continue;
+        m += separator;
+        m += variable_info(static_cast<Var>(a)).label;
+        separator = "; ";
+    }
+    return m;
+}
+
 std::vector<const char*> instruction_sets() {
     std::vector<const char*> names;
     for (const Isa& isa : kIsas)

@@ -6,6 +6,7 @@
 // relative (tests/model/test_batch_kernel.cpp). docs/batch.md describes it.
 #include <cstddef>
 #include <cstdint>
+#include <string>
 #include <vector>
 
 #include "batch/pem_kernel_types.hpp"
@@ -35,11 +36,15 @@ public:
     PemBatch(const Block& block, int32_t n_inputs, const int32_t* input_indices, int32_t n_outputs,
              const int32_t* output_indices, const char* isa = nullptr);
     bool usable() const { return kernel_ != nullptr; }
+    /// The warning of a point whose verdict is 4 + alarm_bits, worded as Block::solve words it
+    /// ("solved with alarms: ...").
+    static std::string alarm_message(unsigned alarm_bits);
     const char* instruction_set() const { return isa_; }
 
     /// Rows [first, first + count) of the row-major inputs (count <= kChunk): their output rows and
-    /// verdict[r] for row first + r: 0 solved, 1 solved with an alarm raised, 2 not taken (solve it on
-    /// the scalar path: an error, open circuit, standby, an input outside its limits...).
+    /// verdict[r] for row first + r: 0 solved, 2 not taken (solve it on the scalar path: an error, open
+    /// circuit, standby, an input outside its limits...), 4 + b solved with alarms raised (b as
+    /// alarm_message takes it).
     void run(const double* inputs, std::size_t first, std::size_t count, double* outputs, uint8_t* verdict);
     /// The same with the inputs and outputs as columns (inputs[i][row], outputs[o][row]): whole vectors
     /// are read from and written into the caller's columns, without a copy.

@@ -414,7 +414,10 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         put(alarm_load_low, select(a_low, one, zero));
         put(alarm_extrapolated, select(extrapolated, one, zero));
         put(alarm_any, select(any, one, zero));
-        select(skip, V(2.0), select(any, one, zero)).store_unaligned(c.verdict + i);
+        // The verdict: 0 solved, 2 not taken, 4 + the alarms raised (bit a for alarm_first + a) otherwise.
+        const V bits = select(a_warn, V(1.0), zero) + select(a_trip, V(2.0), zero) + select(a_temp, V(4.0), zero) +
+                       select(a_high, V(8.0), zero) + select(a_low, V(16.0), zero) + select(extrapolated, V(32.0), zero);
+        select(skip, V(2.0), select(any, 4.0 + bits, zero)).store_unaligned(c.verdict + i);
     }
 }
 

@@ -41,8 +41,9 @@ struct InputLimit {
 };
 
 /// One chunk of points: inputs (padded to a whole number of lanes), the outputs wanted (out[v] null
-/// when variable v is not asked for) and a verdict per point: 0 solved, 1 solved with an alarm raised,
-/// 2 not taken (outside what the kernel covers: the caller solves that point on the scalar path).
+/// when variable v is not asked for) and a verdict per point: 0 solved, 2 not taken (outside what the
+/// kernel covers: the caller solves that point on the scalar path), 4 + b solved with alarms raised,
+/// bit a of b for the alarm variable alarm_first + a.
 struct PemChunk {
     int spec;     // 0 current density given, 1 stack power given, 2 cell voltage given
     bool energy;   // an output that needs the energy balance is asked for (heat duty, gas coolers, efficiencies)

@@ -223,8 +223,9 @@ ELY_API int32_t ely_block_solve_batch(const ely_block* block, size_t n_points, i
  * gives output_indices[o] into output_columns[o][k]. Everything else as ely_block_solve_batch
  * (statuses, messages, NaN for failed points, progress, the working copy). Each column has n_points
  * elements; input_columns and output_columns, and each of their n_inputs and n_outputs columns,
- * must not be NULL whenever n_points > 0. Where the vectorized batch applies (docs/batch.md) the
- * points are read from and written into the columns without a copy. */
+ * must not be NULL whenever n_points > 0; no output column may overlap an input column. Where the
+ * vectorized batch applies (docs/batch.md) the points are read from and written into the columns
+ * without a copy. */
 ELY_API int32_t ely_block_solve_batch_columns(const ely_block* block, size_t n_points, int32_t n_inputs,
                                               const int32_t* input_indices, const double* const* input_columns,
                                               int32_t n_outputs, const int32_t* output_indices,
