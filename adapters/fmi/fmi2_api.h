@@ -14,7 +14,15 @@
 extern "C" {
 #endif
 
+/* The FMU binary exports exactly these functions: visibility on ELF, dllexport on Windows (the DLL
+ * is built with ELY_FMU_BUILDING; an importer that includes this header imports nothing). */
+#if defined(_WIN32) && defined(ELY_FMU_BUILDING)
+#define FMI2_EXPORT __attribute__((__dllexport__))
+#elif defined(_WIN32)
+#define FMI2_EXPORT
+#else
 #define FMI2_EXPORT __attribute__((visibility("default")))
+#endif
 
 typedef void* fmi2Component;
 typedef void* fmi2ComponentEnvironment;

@@ -38,6 +38,11 @@ bool uri_to_path(const char* uri, std::string& path) {
             path += u[i];
         }
     }
+#ifdef _WIN32
+    // "file:///C:/dir" names the path C:/dir (RFC 8089, appendix E.2: a drive letter after the slash).
+    if (path.size() >= 3 && path[0] == '/' && std::isalpha(static_cast<unsigned char>(path[1])) && path[2] == ':')
+        path.erase(0, 1);
+#endif
     return true;
 }
 

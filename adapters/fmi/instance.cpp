@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <cstring>
+#include <filesystem>
 #include <fstream>
 #include <iterator>
 #include <mutex>
@@ -36,7 +37,12 @@ std::string number(double x) {
 }
 
 bool read_file(const std::string& path, std::string& text) {
+#ifdef _WIN32
+    // The host passes UTF-8; a narrow path would be read in the ANSI code page.
+    std::ifstream in(std::filesystem::u8path(path), std::ios::binary);
+#else
     std::ifstream in(path, std::ios::binary);
+#endif
     if (!in) return false;
     text.assign(std::istreambuf_iterator<char>(in), std::istreambuf_iterator<char>());
     return !in.bad();
@@ -131,7 +137,7 @@ Instance* Instance::create(Standard standard, const char* name, const char* toke
         return nullptr;
     }
     std::string path = resource_dir;
-    if (!path.empty() && path.back() != '/') path += '/';
+    if (!path.empty() && path.back() != '/' && path.back() != '\\') path += '/';
     path += "plant.json";
     if (!read_file(path, instance->plant_text_)) {
         instance->fail(function, "cannot read the plant description " + path +

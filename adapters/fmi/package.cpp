@@ -56,12 +56,17 @@ void add_entry(archive* a, const std::string& name, const std::string& data, int
 }  // namespace
 
 const char* platform_folder(int fmi_version) { return fmi_version == 3 ? "x86_64-linux" : "linux64"; }
+const char* windows_platform_folder(int fmi_version) { return fmi_version == 3 ? "x86_64-windows" : "win64"; }
 
 std::string package_fmu(const PackageOptions& o) {
     namespace fs = std::filesystem;
     if (o.fmi_version != 2 && o.fmi_version != 3) throw std::runtime_error("the FMI version must be 2 or 3");
     const std::string plant_text = read_file(o.plant_path, "the plant description");
     const std::string binary = read_file(o.binary_path, "the FMU binary");
+    const std::string windows_binary =
+        o.windows_binary_path.empty() ? std::string() : read_file(o.windows_binary_path, "the FMU's Windows binary");
+    if (!o.windows_binary_path.empty() && windows_binary.compare(0, 2, "MZ") != 0)
+        throw std::runtime_error(o.windows_binary_path + " is not a Windows DLL");
 
     ely_block* raw = nullptr;
     if (ely_block_create(plant_text.c_str(), &raw) < 0)
@@ -103,6 +108,10 @@ std::string package_fmu(const PackageOptions& o) {
         add_entry(a.get(), "modelDescription.xml", xml, 0644, mtime);
         add_entry(a.get(), std::string("binaries/") + platform_folder(o.fmi_version) + "/" + d.model_identifier + ".so",
                   binary, 0755, mtime);
+        if (!o.windows_binary_path.empty())
+            add_entry(a.get(),
+                      std::string("binaries/") + windows_platform_folder(o.fmi_version) + "/" + d.model_identifier + ".dll",
+                      windows_binary, 0755, mtime);
         add_entry(a.get(), "resources/plant.json", plant_text, 0644, mtime);
         if (archive_write_close(a.get()) != ARCHIVE_OK)
             throw std::runtime_error("cannot finish " + partial.string() + ": " + archive_error_string(a.get()));

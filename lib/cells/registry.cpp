@@ -174,7 +174,7 @@ const std::vector<TechnologyInfo>& technologies() {
         {"solid_oxide", "solid oxide steam electrolysis", kMakesHydrogen | kMakesOxygen | kSteamFeed, solid_oxide_parameters,
          make_solid_oxide_cell, {}, steam_summary(), "examples/minimal/solid_oxide.json", 1.0e4,
          "1 A/cm2: the upper end of the 0.3-1 A/cm2 nominal current density of solid oxide electrolysers (IRENA, "
-         "Green Hydrogen Cost Reduction, 2020; from memory)",
+         "Green Hydrogen Cost Reduction, 2020, as reproduced by Chen et al., Energy Mater. 5 (2025) 500045, Table 1)",
          solid_oxide_dynamics()},
         {"brine", "chlor-alkali membrane cell (brine electrolysis)", kMakesHydrogen | kBrineProducts, brine_parameters,
          make_brine_cell, {}, brine_summary(), "examples/minimal/brine.json", 5.0e3,

@@ -10,6 +10,13 @@
 
 namespace ely {
 
+namespace {
+// Brent stops when the bracket is narrower than 4.4e-16·j + ½·kRootTolerance·j_max: the root to a few
+// ulps. The bracket is the point's own (no warm start from the previous point), so a block gives a
+// point the same answer, bit for bit, whatever it solved before.
+constexpr double kRootTolerance = 1e-15;
+}  // namespace
+
 double Block::max_current_density(double temperature, double p_anode, double p_cathode) const {
     const double j_max = v_[par_current_density_max];
     return std::min(j_max, cell_->current_density_limit({j_max, temperature, p_anode, p_cathode}));
@@ -108,12 +115,12 @@ double Block::solve_current_density(double j_max) {
         fb = q_lo - target;
         a = 0.0;
         fa = q_0 - target;
-        return brent_root(f, a, b, fa, fb, 1e-13 * j_max);
+        return brent_root(f, a, b, fa, fb, kRootTolerance * j_max);
     }
     // No warm start from the previous point: the bracket, and so the root and every digit of it, depend on
     // this point alone (a block's answer does not depend on what it solved before, a batch's not on how its
     // points are cut into pieces for threads).
-    return brent_root(f, a, b, fa, fb, 1e-13 * j_max);
+    return brent_root(f, a, b, fa, fb, kRootTolerance * j_max);
 }
 
 }  // namespace ely

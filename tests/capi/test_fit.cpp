@@ -260,6 +260,7 @@ TEST(Fit, EveryErrorPathLeavesTheBlockUnchanged) {
     Block h(kPem);
     const Curve c(h);
     h.set("param.cell.contact_resistance", 3e-5);
+    const double anode_before = h.value("param.cell.anode_exchange_current_density");
     const int32_t output_index = h.index("cell.voltage");
     const int32_t input_index = h.index("in.temperature");
     int32_t count = 0;
@@ -358,7 +359,7 @@ TEST(Fit, EveryErrorPathLeavesTheBlockUnchanged) {
         EXPECT_THAT(ely_last_error(), HasSubstr(k.fragment));
         EXPECT_EQ(out, nullptr);
         EXPECT_EQ(h.value("param.cell.contact_resistance"), 3e-5);
-        EXPECT_EQ(h.value("param.cell.anode_exchange_current_density"), 1e-3);
+        EXPECT_EQ(h.value("param.cell.anode_exchange_current_density"), anode_before);
     }
     EXPECT_EQ(ely_block_fit(h.get(), c.points, 1, c.inputs.data(), c.input_values.data(), 1, c.measured.data(),
                             c.voltages.data(), nullptr, 2, kFree, nullptr, nullptr, nullptr, nullptr),

@@ -255,7 +255,12 @@ def case_summary_shows_solved_values():
     out, _ = run_ok("solve", DEMO, "--spec", "power", "--set", "in.power=12 MW")
     rows, _ = summary_rows(out)
     expect(rows["DC power"] == (12.0, "MW"), f"DC power {rows['DC power']}")
-    expect(abs(rows["current density"][0] - 1.27061) < 1e-5, f"current density {rows['current density']}")
+    # The solved current density meets the set power: 10 stacks of 250 cells of 2000 cm2 (the demo plant),
+    # P = N·A·j·V_cell, from the solved values alone.
+    si = csv_values(run_ok("solve", DEMO, "--spec", "power", "--set", "in.power=12 MW", "--format", "csv")[0])
+    j, v = si["cell.current_density"][0], si["cell.voltage"][0]
+    expect(abs(10 * 250 * 0.2 * j * v / 12e6 - 1) < 1e-12, f"P = N A j V gives {10 * 250 * 0.2 * j * v} W")
+    expect(abs(rows["current density"][0] - j / 1e4) <= 1e-5 * j / 1e4, f"current density {rows['current density']}")
 
 
 # --- item 19: headline figures per technology ------------------------------------------------------

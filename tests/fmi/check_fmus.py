@@ -2,17 +2,22 @@
 """Checks of the FMUs that `elyblock fmu` makes (adapters/fmi), one case per CTest test:
 
   layout         the zip of the demo plant's two FMUs: exactly the model description, the binary under
-                 binaries/linux64 (FMI 2) or binaries/x86_64-linux (FMI 3), resources/plant.json
+                 binaries/linux64 (FMI 2) or binaries/x86_64-linux (FMI 3), resources/plant.json, and
+                 with ELY_FMU_WINDOWS the Windows binary under binaries/win64 or binaries/x86_64-windows
   schema         both model descriptions against the official XML schemas (xmllint), looked for at
                  ../shared/fmi-schema beside the source tree; skipped (exit 77) when absent
   rules          what the schemas cannot express: causality/variability/initial and start combinations,
                  limits, units defined and their SI base-unit exponents (checked with python3-pint),
                  ModelStructure, the token, value references pinned across versions
   every_example  every example plant packed as FMI 2 and FMI 3: rules and schema
-  binary         ldd of the binaries (C runtime only) and their exports (exactly the standard's functions)
-  cli_errors     `elyblock fmu` refusing what it cannot pack, with the exit status and message, leaving no file
+  binary         ldd of the binaries (C runtime only) and their exports (exactly the standard's functions);
+                 the Windows binaries' import and export tables (mingw objdump -p): Windows system DLLs only
+  cli_errors     `elyblock fmu` refusing what it cannot pack, with the exit status and message, leaving no
+                 file; packing Linux only (saying so on stderr) when no Windows binary is found
 
 Usage: check_fmus.py CASE ELYBLOCK_CLI SOURCE_DIR FMU_BUILD_DIR WORK_DIR SANITIZER
+Environment: ELY_FMU_WINDOWS_DIR, the folder of the Windows binaries when the build packs them
+(ELY_FMU_WINDOWS), else empty; ELY_MINGW_OBJDUMP, mingw's objdump.
 """
 import os
 import re
@@ -30,6 +35,7 @@ SCHEMAS = os.environ.get("ELY_FMI_SCHEMA_DIR") or os.path.normpath(os.path.join(
                                                                                   "fmi-schema"))
 SKIP = 77
 failures = []
+WINDOWS_DIR = os.environ.get("ELY_FMU_WINDOWS_DIR", "")
 
 
 def expect(ok, what):
@@ -44,6 +50,10 @@ def demo_fmu(version):
 
 def platform(version):
     return "linux64" if version == 2 else "x86_64-linux"
+
+
+def windows_platform(version):
+    return "win64" if version == 2 else "x86_64-windows"
 
 
 # ---- schema -------------------------------------------------------------------------------------
@@ -218,11 +228,17 @@ def case_layout():
     for version in (2, 3):
         members = read_fmu(demo_fmu(version))
         binary = f"binaries/{platform(version)}/demo_plant.so"
-        expect(sorted(members) == sorted(["modelDescription.xml", binary, "resources/plant.json"]),
-               f"FMI {version}: members {sorted(members)}")
+        windows_binary = f"binaries/{windows_platform(version)}/demo_plant.dll"
+        wanted = ["modelDescription.xml", binary, "resources/plant.json"] + ([windows_binary] if WINDOWS_DIR else [])
+        expect(sorted(members) == sorted(wanted), f"FMI {version}: members {sorted(members)}")
         expect(members.get("resources/plant.json") == plant, f"FMI {version}: resources/plant.json is the plant as given")
         built = open(os.path.join(FMU_DIR, f"elyblock-fmi{version}.so"), "rb").read()
         expect(members.get(binary) == built, f"FMI {version}: {binary} is elyblock-fmi{version}.so")
+        if WINDOWS_DIR:
+            built = open(os.path.join(WINDOWS_DIR, f"elyblock-fmi{version}.dll"), "rb").read()
+            expect(members.get(windows_binary) == built, f"FMI {version}: {windows_binary} is elyblock-fmi{version}.dll")
+        else:
+            print(f"note - FMI {version}: no Windows binary expected (ELY_FMU_WINDOWS is off)")
 
 
 def case_schema():
@@ -254,8 +270,9 @@ def case_every_example():
         stem = os.path.splitext(os.path.basename(plant))[0]
         for version in (2, 3):
             out = os.path.join(WORK, f"{stem}-fmi{version}.fmu")
+            windows = ["--windows-binaries", WINDOWS_DIR] if WINDOWS_DIR else ["--no-windows"]
             p = subprocess.run([CLI, "fmu", plant, "--fmi", str(version), "--output", out,
-                                "--binaries", FMU_DIR], capture_output=True, text=True)
+                                "--binaries", FMU_DIR] + windows, capture_output=True, text=True)
             label = f"{os.path.relpath(plant, SOURCE)}, FMI {version}"
             expect(p.returncode == 0, f"{label}: elyblock fmu" + ("" if p.returncode == 0 else ": " + p.stderr))
             if p.returncode != 0:
@@ -263,6 +280,8 @@ def case_every_example():
             m = read_fmu(out)
             identifier = re.sub(r"[^A-Za-z0-9_]", "_", stem)
             expect(f"binaries/{platform(version)}/{identifier}.so" in m, f"{label}: binary {identifier}.so")
+            if WINDOWS_DIR:
+                expect(f"binaries/{windows_platform(version)}/{identifier}.dll" in m, f"{label}: binary {identifier}.dll")
             xml_text = m["modelDescription.xml"].decode()
             if validating:
                 validate(xml_text, version, label)
@@ -309,6 +328,40 @@ def case_binary():
         expect(exported == wanted, f"FMI {version}: exports exactly the {len(wanted)} functions of the standard" +
                ("" if exported == wanted else f": extra {sorted(set(exported) - set(wanted))[:10]}, "
                                               f"missing {sorted(set(wanted) - set(exported))}"))
+        if WINDOWS_DIR:
+            check_windows_binary(version, functions)
+
+
+# The Windows binary: imports from Windows system DLLs only (the C runtime msvcrt.dll and KERNEL32.dll,
+# as `ldd` for Linux), exports exactly the standard's functions. Read from the demo FMU itself.
+WINDOWS_SYSTEM_DLLS = ("kernel32.dll", "msvcrt.dll")
+
+
+def check_windows_binary(version, functions):
+    objdump = os.environ.get("ELY_MINGW_OBJDUMP", "")
+    if not objdump or not os.path.isfile(objdump):
+        print(f"note - FMI {version}: x86_64-w64-mingw32-objdump not found: the Windows binary's tables are not checked")
+        return
+    member = f"binaries/{windows_platform(version)}/demo_plant.dll"
+    os.makedirs(WORK, exist_ok=True)
+    dll = os.path.join(WORK, f"demo_plant_fmi{version}.dll")
+    with open(dll, "wb") as f:
+        f.write(read_fmu(demo_fmu(version))[member])
+    text = subprocess.run([objdump, "-p", dll], capture_output=True, text=True, check=True).stdout
+    imports = sorted({m.group(1) for m in re.finditer(r"^\s*DLL Name: (\S+)", text, re.M)})
+    expect(imports and all(d.lower() in WINDOWS_SYSTEM_DLLS for d in imports),
+           f"FMI {version}: {member} imports from Windows system DLLs only ({', '.join(imports)})")
+    exported = []
+    table = text.split("[Ordinal/Name Pointer] Table", 1)
+    for line in (table[1].splitlines()[1:] if len(table) == 2 else []):
+        m = re.match(r"^\s*\[\s*\d+\]\s+(\S+)\s*$", line)
+        if not m:
+            break
+        exported.append(m.group(1))
+    wanted = sorted(f"fmi{version}{f}" for f in functions)
+    expect(sorted(exported) == wanted, f"FMI {version}: {member} exports exactly the {len(wanted)} functions of the "
+           "standard" + ("" if sorted(exported) == wanted else f": extra {sorted(set(exported) - set(wanted))[:10]}, "
+                                                                 f"missing {sorted(set(wanted) - set(exported))}"))
 
 
 def case_cli_errors():
@@ -322,6 +375,11 @@ def case_cli_errors():
     def fmu(*args):
         return subprocess.run([CLI, "fmu", *args], capture_output=True, text=True)
 
+    fake = os.path.join(WORK, "fake-windows")  # an elyblock-fmi3.dll that is no DLL
+    os.makedirs(fake)
+    with open(os.path.join(fake, "elyblock-fmi3.dll"), "wb") as f:
+        f.write(b"\x7fELF not a Windows DLL")
+
     cases = [
         ((os.path.join(WORK, "missing.json"), "--fmi", "2", "--binaries", FMU_DIR), 1, "cannot read the plant description"),
         ((bad_plant, "--fmi", "3", "--binaries", FMU_DIR, "--output", os.path.join(WORK, "bad.fmu")), 1, "$.stack.cells"),
@@ -332,6 +390,11 @@ def case_cli_errors():
          "--model-identifier: 2bad-name is not a C identifier"),
         ((demo, "--fmi", "2", "--binaries", FMU_DIR, "--output", os.path.join(WORK, "no", "such", "x.fmu")), 1,
          "cannot write " + os.path.join(WORK, "no", "such", "x.fmu") + ":"),
+        ((demo, "--fmi", "2", "--binaries", FMU_DIR, "--windows-binaries", os.path.join(WORK, "nowhere")), 1,
+         "the Windows FMU binary elyblock-fmi2.dll is not in"),
+        ((demo, "--fmi", "3", "--binaries", FMU_DIR, "--windows-binaries", fake, "--output", os.path.join(WORK, "f.fmu")),
+         1, os.path.join(fake, "elyblock-fmi3.dll") + " is not a Windows DLL"),
+        ((demo, "--fmi", "2", "--no-windows", "--windows-binaries", fake), 2, "--windows-binaries excludes --no-windows"),
     ]
     for args, status, text in cases:
         p = fmu(*args)
@@ -340,6 +403,21 @@ def case_cli_errors():
                f"(got {p.returncode}: {p.stderr.strip()})")
     left = [f for f in os.listdir(WORK) if f.endswith((".fmu", ".partial"))]
     expect(not left, f"no FMU or partial file is left behind ({left})")
+
+    # No Windows binary beside the Linux ones: the FMU is made with Linux only, and stderr says so;
+    # --no-windows makes the same without the note.
+    made = os.path.join(WORK, "made")
+    os.makedirs(made)
+    for extra, note in (((), True), (("--no-windows",), False)):
+        out = os.path.join(made, "linux-only.fmu")
+        p = fmu(demo, "--fmi", "3", "--binaries", FMU_DIR, "--output", out, *extra)
+        members = sorted(read_fmu(out)) if p.returncode == 0 else []
+        said = "no Windows binary (elyblock-fmi3.dll is not in" in p.stderr and "Linux binary only" in p.stderr
+        expect(p.returncode == 0 and members == ["binaries/x86_64-linux/demo_plant.so", "modelDescription.xml",
+                                                 "resources/plant.json"] and said == note and
+               (note or p.stderr == "") and "binaries/x86_64-linux\n" in p.stdout,
+               f"elyblock fmu {' '.join(extra)} without a Windows binary: Linux only, "
+               f"{'says so on stderr' if note else 'nothing on stderr'} (got {p.returncode}, {members}, {p.stderr.strip()})")
 
 
 {"layout": case_layout, "schema": case_schema, "rules": case_rules, "every_example": case_every_example,

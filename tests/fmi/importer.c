@@ -1,14 +1,28 @@
 /* An FMI importer of our own (C99, dlopen): drives an unpacked elyblock FMU, FMI 2.0 or 3.0
  * Co-Simulation, through its life cycle and the standard's misuse cases, and compares its physics
  * with the library's own dynamic calls (ely_block_reset / ely_block_advance) bit for bit.
- * Usage: importer 2|3 UNPACKED_FMU_DIR. Prints one line per check ("ok -" / "not ok -") and
- * returns the number of failed checks. Value references, the token and the model identifier are
- * read from modelDescription.xml (libxml2), as any importer reads them. */
+ * Usage: importer 2|3 UNPACKED_FMU_DIR [VALUES_FILE]. Prints one line per check ("ok -" /
+ * "not ok -") and returns the number of failed checks. Value references, the token and the model
+ * identifier are read from modelDescription.xml (libxml2), as any importer reads them.
+ * VALUES_FILE: the FMU's outputs of the stepped run and of the steady run, written with 17
+ * significant digits, to compare the Linux binary with the Windows one (tests/fmi/wine_fmu.sh).
+ *
+ * The same source is cross-compiled for Windows (importer.exe, run under Wine): LoadLibraryW and
+ * GetProcAddress instead of dlopen, the Windows binary binaries/win64 or binaries/x86_64-windows,
+ * resource locations as Windows paths, and the model description read by a small attribute scanner
+ * (mingw has no libxml2; the file is this project's own output, one element per tag). */
+#ifdef _WIN32
+#define WIN32_LEAN_AND_MEAN
+#define NOGDI /* wingdi.h defines ERROR */
+#include <windows.h>
+#include <shellapi.h> /* CommandLineToArgvW */
+#else
 #define _DEFAULT_SOURCE /* realpath */
 #include <dlfcn.h>
-#include <elyblock/elyblock.h>
 #include <libxml/parser.h>
 #include <libxml/tree.h>
+#endif
+#include <elyblock/elyblock.h>
 #include <math.h>
 #include <stdarg.h>
 #include <stdio.h>
@@ -19,6 +33,7 @@
 #include "fmi3_api.h"
 
 static int failures = 0;
+static FILE* values = NULL; /* VALUES_FILE, or NULL */
 static void check(int ok, const char* what) {
     printf("%s - %s\n", ok ? "ok" : "not ok", what);
     if (!ok) ++failures;
@@ -32,6 +47,85 @@ static unsigned var_refs[MAX_VARS];
 static int n_vars = 0;
 static char token[128], identifier[128];
 
+/* A file named by a UTF-8 path (on Windows through its UTF-16 form: narrow paths are ANSI there). */
+static FILE* open_utf8(const char* path, const char* mode) {
+#ifdef _WIN32
+    wchar_t wide_path[8192], wide_mode[8];
+    if (!MultiByteToWideChar(CP_UTF8, 0, path, -1, wide_path, 8192) ||
+        !MultiByteToWideChar(CP_UTF8, 0, mode, -1, wide_mode, 8))
+        return NULL;
+    return _wfopen(wide_path, wide_mode);
+#else
+    return fopen(path, mode);
+#endif
+}
+
+/* The file: URI of an absolute path ("/dir" or, on Windows, "C:/dir"), every byte outside RFC
+ * 3986's unreserved characters, '/' and ':' percent-encoded (spaces, non-ASCII UTF-8 bytes). */
+static void file_uri(const char* path, char* uri, size_t size) {
+    size_t n = (size_t)snprintf(uri, size, "file://%s", path[0] == '/' ? "" : "/");
+    for (const unsigned char* c = (const unsigned char*)path; *c && n + 4 < size; ++c) {
+        if ((*c >= 'A' && *c <= 'Z') || (*c >= 'a' && *c <= 'z') || (*c >= '0' && *c <= '9') || strchr("-._~/:", *c))
+            uri[n++] = (char)*c;
+        else
+            n += (size_t)snprintf(uri + n, size - n, "%%%02X", *c);
+    }
+    uri[n] = 0;
+}
+
+#ifdef _WIN32
+/* The value of attribute `name` inside the tag [tag, end), into out; 0 when absent. */
+static int attribute(const char* tag, const char* end, const char* name, char* out, size_t size) {
+    char key[64];
+    snprintf(key, sizeof key, " %s=\"", name);
+    const char* a = strstr(tag, key);
+    if (!a || a >= end) return 0;
+    a += strlen(key);
+    const char* q = strchr(a, '"');
+    if (!q || q >= end || (size_t)(q - a) >= size) return 0;
+    memcpy(out, a, (size_t)(q - a));
+    out[q - a] = 0;
+    return 1;
+}
+
+static void read_description(const char* dir) {
+    char path[8192], value[128];
+    snprintf(path, sizeof path, "%s/modelDescription.xml", dir);
+    FILE* f = open_utf8(path, "rb");
+    if (!f) {
+        fprintf(stderr, "cannot read %s\n", path);
+        exit(100);
+    }
+    fseek(f, 0, SEEK_END);
+    long n = ftell(f);
+    fseek(f, 0, SEEK_SET);
+    char* text = malloc((size_t)n + 1);
+    if (!text || fread(text, 1, (size_t)n, f) != (size_t)n) exit(100);
+    text[n] = 0;
+    fclose(f);
+    const char* root = strstr(text, "<fmiModelDescription");
+    const char* cs = strstr(text, "<CoSimulation");
+    const char* vars = strstr(text, "<ModelVariables>");
+    const char* vars_end = strstr(text, "</ModelVariables>");
+    if (!root || !cs || !vars || !vars_end) {
+        fprintf(stderr, "%s: not an FMI model description\n", path);
+        exit(100);
+    }
+    if (!attribute(root, strchr(root, '>'), "guid", token, sizeof token) &&
+        !attribute(root, strchr(root, '>'), "instantiationToken", token, sizeof token))
+        exit(100);
+    if (!attribute(cs, strchr(cs, '>'), "modelIdentifier", identifier, sizeof identifier)) exit(100);
+    /* Every tag in ModelVariables with a name and a value reference is a variable. */
+    for (const char* tag = strchr(vars + 1, '<'); tag && tag < vars_end && n_vars < MAX_VARS; tag = strchr(tag + 1, '<')) {
+        const char* end = strchr(tag, '>');
+        if (!end) break;
+        if (attribute(tag, end, "name", var_names[n_vars], sizeof var_names[0]) &&
+            attribute(tag, end, "valueReference", value, sizeof value))
+            var_refs[n_vars++] = (unsigned)strtoul(value, NULL, 10);
+    }
+    free(text);
+}
+#else
 static void read_description(const char* dir) {
     char path[8192];
     snprintf(path, sizeof path, "%s/modelDescription.xml", dir);
@@ -65,6 +159,7 @@ static void read_description(const char* dir) {
     }
     xmlFreeDoc(doc);
 }
+#endif
 
 static unsigned vr_of(const char* name) {
     for (int i = 0; i < n_vars; ++i)
@@ -103,7 +198,11 @@ static void logger3(fmi3InstanceEnvironment env, fmi3Status status, fmi3String c
 }
 
 static void* sym(const char* name) {
+#ifdef _WIN32
+    void* f = (void*)GetProcAddress((HMODULE)lib, name);
+#else
     void* f = dlsym(lib, name);
+#endif
     if (!f) {
         fprintf(stderr, "the FMU does not export %s\n", name);
         exit(102);
@@ -298,29 +397,74 @@ static int same(double a[N_STEPS][N_OUT], double b[N_STEPS][N_OUT], int from, in
 }
 
 int main(int argc, char** argv) {
-    if (argc != 3) {
-        fprintf(stderr, "usage: importer 2|3 UNPACKED_FMU_DIR\n");
+    if (argc != 3 && argc != 4) {
+        fprintf(stderr, "usage: importer 2|3 UNPACKED_FMU_DIR [VALUES_FILE]\n");
         return 100;
     }
     version = atoi(argv[1]);
     char dir[4096];
+    char binary[8192], plant[8192];
+#ifdef _WIN32
+    /* Windows: the arguments as UTF-8 (from the UTF-16 command line), the folder as an absolute
+     * path with '/' separators (as the URI wants them; Windows takes both). */
+    static char utf8_args[4][4096];
+    int wide_argc = 0;
+    wchar_t** wide_argv = CommandLineToArgvW(GetCommandLineW(), &wide_argc);
+    if (!wide_argv || wide_argc != argc) return 100;
+    for (int i = 0; i < argc; ++i) {
+        wchar_t full[4096];
+        const wchar_t* arg = wide_argv[i];
+        if (i == 2 && _wfullpath(full, arg, 4096)) arg = full;
+        if (!WideCharToMultiByte(CP_UTF8, 0, arg, -1, utf8_args[i], 4096, NULL, NULL)) return 100;
+        argv[i] = utf8_args[i];
+    }
+    LocalFree(wide_argv);
+    snprintf(dir, sizeof dir, "%s", argv[2]);
+    for (char* c = dir; *c; ++c)
+        if (*c == '\\') *c = '/';
+    read_description(dir);
+    if (argc == 4 && !(values = open_utf8(argv[3], "w"))) return 100;
+    snprintf(binary, sizeof binary, "%s/binaries/%s/%s.dll", dir, version == 2 ? "win64" : "x86_64-windows", identifier);
+    snprintf(plant, sizeof plant, "%s/resources/plant.json", dir);
+    if (version == 2) {
+        char resource_dir[8192];
+        snprintf(resource_dir, sizeof resource_dir, "%s/resources", dir);
+        file_uri(resource_dir, resources, sizeof resources); /* file:///Z:/dir/resources */
+    } else {
+        snprintf(resources, sizeof resources, "%s/resources/", dir); /* a native path, '\\' separators */
+        for (char* c = resources; *c; ++c)
+            if (*c == '/') *c = '\\';
+    }
+    wchar_t wide[8192];
+    if (!MultiByteToWideChar(CP_UTF8, 0, binary, -1, wide, 8192)) return 104;
+    lib = (void*)LoadLibraryW(wide);
+    if (!lib) {
+        fprintf(stderr, "LoadLibraryW %s: error %lu\n", binary, (unsigned long)GetLastError());
+        return 104;
+    }
+#else
     if (!realpath(argv[2], dir)) {
         fprintf(stderr, "no folder %s\n", argv[2]);
         return 100;
     }
     read_description(dir);
-    char binary[8192], plant[8192];
+    if (argc == 4 && !(values = open_utf8(argv[3], "w"))) return 100;
     snprintf(binary, sizeof binary, "%s/binaries/%s/%s.so", dir, version == 2 ? "linux64" : "x86_64-linux", identifier);
     snprintf(plant, sizeof plant, "%s/resources/plant.json", dir);
-    if (version == 2)
-        snprintf(resources, sizeof resources, "file://%s/resources", dir);
-    else
+    if (version == 2) {
+        char resource_dir[8192];
+        snprintf(resource_dir, sizeof resource_dir, "%s/resources", dir);
+        file_uri(resource_dir, resources, sizeof resources);
+    } else {
         snprintf(resources, sizeof resources, "%s/resources/", dir);
+    }
     lib = dlopen(binary, RTLD_NOW | RTLD_LOCAL);
     if (!lib) {
         fprintf(stderr, "dlopen %s: %s\n", binary, dlerror());
         return 104;
     }
+#endif
+    printf("# %s, %d variables, resources at %s\n", binary, n_vars, resources);
     check(strcmp(version == 2 ? F2(fmi2GetVersion)() : F3(fmi3GetVersion)(), version == 2 ? "2.0" : "3.0") == 0,
           "GetVersion names the standard");
     if (version == 2) check(strcmp(F2(fmi2GetTypesPlatform)(), "default") == 0, "fmi2GetTypesPlatform is default");
@@ -347,6 +491,9 @@ int main(int argc, char** argv) {
     check(same(reference, through_fmu, 0, N_STEPS),
           "the FMU's trajectory equals ely_block_reset/ely_block_advance bit for bit");
     check(through_fmu[N_STEPS - 1][1] != through_fmu[0][1], "... and the stack temperature moved");
+    if (values)
+        for (int k = 0; k < N_STEPS; ++k)
+            for (size_t o = 0; o < N_OUT; ++o) fprintf(values, "step %d %s %.17g\n", k, kOutputs[o], through_fmu[k][o]);
 
     /* Reset runs the same again. */
     check(terminate_instance(a) == OK, "terminate");
@@ -426,6 +573,12 @@ int main(int argc, char** argv) {
                     get(st, "heat.released", &released) == OK && get(st, "heat.to_coolant", &to_coolant) == OK &&
                     get(st, "heat.loss", &loss) == OK;
         check(steady_ok, "40 h at constant inputs");
+        if (values)
+            fprintf(values,
+                    "steady stack.temperature %.17g\nsteady state.hours_operated %.17g\nsteady cell.voltage %.17g\n"
+                    "steady product.hydrogen %.17g\nsteady heat.released %.17g\nsteady heat.to_coolant %.17g\n"
+                    "steady heat.loss %.17g\n",
+                    T, hours, v_fmu, h2_fmu, released, to_coolant, loss);
         ely_block* blk = NULL;
         int32_t i_t, i_h, i_v, i_h2, i_j;
         double v_lib = 0, h2_lib = 0;
@@ -531,7 +684,12 @@ int main(int argc, char** argv) {
     free_instance(NULL);
     check(log_count > 0, "the host's logger was called");
 
+#ifdef _WIN32
+    FreeLibrary((HMODULE)lib);
+#else
     dlclose(lib);
+#endif
+    if (values) fclose(values);
     printf("%d failed\n", failures);
     return failures;
 }

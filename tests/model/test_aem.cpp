@@ -101,15 +101,23 @@ TEST(AemCell, VoltagePartsSumExactlyAndMoveTheRightWay) {
 TEST(AemCell, PureWaterFeedLosesTheElectrolytePath) {
     // Without KOH in the feed the water activity is 1 and only the membrane's own hydroxide
     // conducts: a higher ohmic loss; with 1 M KOH the water activity is below 1 (Balej 1985).
-    const auto koh = aem(), water = aem({{"feed_koh_mass_fraction", 0.0}});
+    // The membrane and contact parameters are set here, so that the hand calculation below owns its inputs.
+    // 1 M KOH is 5.35 wt % (about 1.047 kg/L, common practice).
+    auto cell = [](double feed_koh) {
+        return aem({{"membrane_thickness", 40e-6}, {"membrane_ion_exchange_capacity", 2.2},
+                    {"membrane_water_content", 10.0}, {"membrane_dry_density", 1150.0},
+                    {"hydroxide_diffusivity", 5.273e-9}, {"hydroxide_diffusivity_activation_energy", 18e3},
+                    {"contact_resistance", 4e-6}, {"feed_koh_mass_fraction", feed_koh}});
+    };
+    const auto koh = cell(0.0535), water = cell(0.0);
     const auto rk = koh->evaluate(at(1.0, 60)), rw = water->evaluate(at(1.0, 60));
     EXPECT_EQ(rw.water_activity_anode, 1.0);
     EXPECT_LT(rk.water_activity_anode, 0.99);
     EXPECT_GT(rk.water_activity_anode, 0.95);
     EXPECT_GT(rw.ohmic, rk.ohmic);
-    // The membrane alone: 50 um over its own conductivity at 60 °C plus the contact resistance.
-    const double sigma = hydroxide_membrane_conductivity({2.0, 12.0, 1200.0}, 5.273e-9, 18e3, 333.15);
-    EXPECT_NEAR(rw.ohmic, 1e4 * (50e-6 / sigma + 5e-6), 1e-12);
+    // The membrane alone: 40 um over its own conductivity at 60 °C plus the contact resistance.
+    const double sigma = hydroxide_membrane_conductivity({2.2, 10.0, 1150.0}, 5.273e-9, 18e3, 333.15);
+    EXPECT_NEAR(rw.ohmic, 1e4 * (40e-6 / sigma + 4e-6), 1e-12);
 }
 
 TEST(AemCell, CrossoverSetsPurityAndFaradayEfficiency) {

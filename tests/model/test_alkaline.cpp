@@ -65,7 +65,7 @@ TEST(AlkalineCell, ActivatedNickelCathodeOverpotential) {
 }
 
 TEST(AlkalineCell, ReversibleVoltageUsesWaterActivityOfTheLye) {
-    const auto cell = alkaline();
+    const auto cell = alkaline({{"koh_mass_fraction", 0.30}});
     for (double t : kTemperatures)
         for (const auto& [pa, pc] : kPressures) {
             const auto r = cell->evaluate({4000.0, t, pa, pc});
@@ -208,7 +208,7 @@ TEST(AlkalineCell, UllebergFaradayEfficiencyOption) {
 }
 
 TEST(AlkalineCell, ShuntCurrentOptions) {
-    const auto none = alkaline();
+    const auto none = alkaline({{"koh_mass_fraction", 0.30}});
     // Fixed fraction: exactly that fraction of the current makes no gas.
     const auto fraction = alkaline({{"shunt_model", 1}, {"shunt_current_fraction", 0.03}});
     for (double j : {800.0, 4000.0, 1e4}) {
@@ -231,7 +231,9 @@ TEST(AlkalineCell, ShuntCurrentOptions) {
     // 0, cell 1 at -V, manifold at -V/2; the port of cell 0 carries V/(2 R), that of cell 1 -V/(2 R); the
     // electrode current of cell 0 is short by V/(2 R), cell 1 by nothing: the mean lost current is V/(4 R) per
     // cell, R = (L/A)/sigma. With L/A = 2500 1/m, A = 2.5 m2: lost j = V sigma/(4 x 2500 x 2.5).
-    const auto pair = alkaline({{"shunt_model", 2}, {"shunt_cells", 2}, {"shunt_manifold_length_per_area", 0.0}});
+    const auto pair = alkaline({{"shunt_model", 2}, {"shunt_cells", 2}, {"shunt_manifold_length_per_area", 0.0},
+                                {"shunt_channel_length_per_area", 2500.0}, {"shunt_cell_area", 2.5},
+                                {"koh_mass_fraction", 0.30}});
     const auto b = pair->evaluate({4000.0, 353.15, 16e5, 16e5});
     const double sigma = koh_conductivity_gilliam(koh_molarity(0.30, 353.15), 353.15);
     const double lost = none->evaluate({4000.0, 353.15, 16e5, 16e5}).faraday_efficiency - b.faraday_efficiency;
@@ -261,7 +263,7 @@ TEST(AlkalineCell, ErrorsNameTheLimit) {
     expect_error([&] { limited->evaluate({1.2e4, 353.15, kAtm, kAtm}); }, ErrorKind::out_of_range, "limiting current");
     EXPECT_TRUE(limited->evaluate({0.97 * 1.2e4, 353.15, kAtm, kAtm}).warnings & kWarnNearLimitingCurrent);
     EXPECT_LT(limited->current_density_limit({0.0, 353.15, kAtm, kAtm}), 1.2e4);
-    EXPECT_EQ(alkaline()->current_density_limit({0.0, 353.15, kAtm, kAtm}), 2e4);
+    EXPECT_EQ(alkaline()->current_density_limit({0.0, 353.15, kAtm, kAtm}), alkaline()->envelope().current_density_max);
     EXPECT_TRUE(cell->evaluate({4000.0, 313.15, kAtm, kAtm}).warnings & kWarnTemperatureExtrapolated);
     const auto open = cell->evaluate({0.0, 353.15, kAtm, kAtm});
     EXPECT_EQ(open.voltage, open.reversible_voltage);

@@ -127,7 +127,8 @@ TEST(PemCell, HydrogenPermeabilityOfTheMembrane) {
     // Trinke et al., J. Electrochem. Soc. 163 (2016) F3164: diffusive hydrogen permeability 2.95e-14 mol/(m s Pa)
     // at 60 C, measured in an electrolysis cell. The default at 60 C, from the crossover flux at open-circuit
     // conditions (supersaturation off, no pressure difference): N = P p_H2/delta.
-    const auto cell = pem({{"h2_supersaturation_coefficient", 0.0}});
+    // Nafion 117: 7 mil = 177.8 um nominal dry thickness (common practice), set explicitly.
+    const auto cell = pem({{"h2_supersaturation_coefficient", 0.0}, {"membrane_thickness", 177.8e-6}});
     const double t = 333.15, p = 10e5;
     const auto r = cell->evaluate({2e4, t, p, p});
     const double p_h2 = p - 19946.4;  // IAPWS-IF97 saturation pressure at 60 C: 19.946 kPa (rounded)
@@ -214,12 +215,15 @@ TEST(PemCell, ElectroosmoticDrag) {
 
 TEST(PemCell, TafelOptionMatchesButlerVolmerAtHighOverpotential) {
     // The anode runs at j/j0 ~ 1e7: Tafel and Butler-Volmer agree far better than 1 mV.
-    const auto bv = pem()->evaluate({2e4, 353.15, kAtm, 30e5});
-    const auto tafel = pem({{"kinetics_model", 1.0}})->evaluate({2e4, 353.15, kAtm, 30e5});
+    const auto bv = pem({{"anode_transfer_coefficient_forward", 1.5}, {"anode_transfer_coefficient_backward", 1.5}})
+                        ->evaluate({2e4, 353.15, kAtm, 30e5});
+    const auto tafel_cell = pem({{"kinetics_model", 1.0}, {"anode_transfer_coefficient_forward", 1.5},
+                                 {"anode_transfer_coefficient_backward", 1.5}});
+    const auto tafel = tafel_cell->evaluate({2e4, 353.15, kAtm, 30e5});
     EXPECT_LT(std::fabs(bv.activation_anode - tafel.activation_anode), 1e-3);
     // Tafel slope per decade 2.303 RT/(alpha F) (PHYSICS.md): the anode's alpha 1.5 at 80 C gives
     // 2.302585 x 8.314462618 x 353.15/(1.5 x 96485.33212) = 46.71 mV per decade [D].
-    const auto decade = pem({{"kinetics_model", 1.0}})->evaluate({2e3, 353.15, kAtm, 30e5});
+    const auto decade = tafel_cell->evaluate({2e3, 353.15, kAtm, 30e5});
     EXPECT_NEAR(tafel.activation_anode - decade.activation_anode, 0.046710, 1e-5);
 }
 
@@ -228,11 +232,16 @@ TEST(PemCell, OpenCircuitUnderPressureIsHotStandby) {
     // (Fick with Henry's law, N = P p_H2/delta, and the pressure-driven part; Trinke et al. 2016). All of it
     // is drawn back from the product line and leaves with the anode gas, which is pure hydrogen (dry basis):
     // no operating point may report a safe anode gas that is not.
-    const auto r = pem()->evaluate({0.0, 353.15, kAtm, 30e5});
+    // Permeability at its reference temperature 353.15 K (Arrhenius factor 1), set here with the thickness and
+    // the Darcy coefficient so that the hand calculation below owns its inputs.
+    const double permeability = 3.1e-14, thickness = 150e-6, darcy_coefficient = 3e-22;
+    const auto r = pem({{"h2_permeability", permeability}, {"membrane_thickness", thickness},
+                        {"h2_darcy_coefficient", darcy_coefficient}})
+                       ->evaluate({0.0, 353.15, kAtm, 30e5});
     EXPECT_EQ(r.voltage, r.reversible_voltage);
     EXPECT_EQ(r.activation_anode + r.activation_cathode + r.ohmic + r.concentration, 0.0);
     const double p_h2 = 30e5 - water_saturation_pressure(353.15);
-    const double fick = 4.44e-14 * p_h2 / 177.8e-6, darcy = 2e-22 * p_h2 * (30e5 - kAtm) / 177.8e-6;
+    const double fick = permeability * p_h2 / thickness, darcy = darcy_coefficient * p_h2 * (30e5 - kAtm) / thickness;
     EXPECT_NEAR(r.anode_out[kH2], fick + darcy, 1e-12 * (fick + darcy));
     EXPECT_EQ(r.consumed[kH2], r.anode_out[kH2]);
     EXPECT_EQ(r.cathode_out[kH2], 0.0);
@@ -274,8 +283,8 @@ TEST(PemCell, LimitingCurrentDensity) {
     EXPECT_LT(limit, 3e4);
     EXPECT_GT(limit, 0.999 * 3e4);
     EXPECT_TRUE(std::isfinite(cell->evaluate({limit, 353.15, kAtm, kAtm}).voltage));
-    // Default: the hard envelope limit (5 A/cm²) is below j_lim (6 A/cm²).
-    EXPECT_EQ(pem()->current_density_limit({0.0, 353.15, kAtm, kAtm}), 5e4);
+    // Default: the hard envelope limit is below j_lim, so the limit is the envelope's.
+    EXPECT_EQ(pem()->current_density_limit({0.0, 353.15, kAtm, kAtm}), pem()->envelope().current_density_max);
     EXPECT_FALSE(pem()->evaluate({5e4, 353.15, kAtm, kAtm}).warnings & kWarnNearLimitingCurrent);
 }
 

@@ -59,7 +59,7 @@ TEST(SolidOxideCell, ReversibleVoltageBetweenInletAndOutlet) {
     // The Nernst voltage at the mean cathode composition lies between the voltages of the inlet gas and of
     // the outlet gas (x_H2O,out = x_in (1 − U), one H2 per H2O reacted).
     for (double u : {0.3, 0.5, 0.7, 0.9}) {
-        const auto cell = soec({{"steam_utilisation", u}});
+        const auto cell = soec({{"steam_utilisation", u}, {"steam_inlet_fraction", 0.9}});
         for (double t : kTemperatures)
             for (const auto& [pa, pc] : kPressures) {
                 const auto r = cell->evaluate({5000.0, t, pa, pc});
@@ -150,7 +150,8 @@ TEST(SolidOxideCell, LimitingCurrentFromSteamDepletion) {
     // j_lim = 2F·D_eff·c_H2O,out/δ at the outlet steam fraction x_in(1 − U). Hand calculation at U = 0.95,
     // 800 C (every number shown): 2 x 96485.33 C/mol x 2e-5 m2/s x 1e5 Pa x 0.045 / (8.314463 J/(mol K)
     // x 1073.15 K x 4e-4 m) = 4866.08 A/m2.
-    const auto cell = soec({{"steam_utilisation", 0.95}});
+    const auto cell = soec({{"steam_utilisation", 0.95}, {"steam_inlet_fraction", 0.9},
+                            {"cathode_effective_diffusivity", 2e-5}, {"cathode_support_thickness", 4e-4}});
     const double limit = cell->current_density_limit({0.0, 1073.15, kAtm, kAtm});
     EXPECT_LT(limit, 4866.08);
     EXPECT_GT(limit, 0.999 * 4866.08);
@@ -158,15 +159,17 @@ TEST(SolidOxideCell, LimitingCurrentFromSteamDepletion) {
     EXPECT_TRUE(cell->evaluate({0.97 * 4866.08, 1073.15, kAtm, kAtm}).warnings & kWarnNearLimitingCurrent);
     // Default utilisation: the hard envelope (2 A/cm²) is below the diffusion limit (2.9 A/cm² at
     // 800 C, 2.5 A/cm² at 600 C).
-    EXPECT_EQ(soec()->current_density_limit({0.0, 1073.15, kAtm, kAtm}), 2e4);
-    EXPECT_EQ(soec()->current_density_limit({0.0, 873.15, kAtm, kAtm}), 2e4);
+    EXPECT_EQ(soec()->current_density_limit({0.0, 1073.15, kAtm, kAtm}), soec()->envelope().current_density_max);
+    EXPECT_EQ(soec()->current_density_limit({0.0, 873.15, kAtm, kAtm}), soec()->envelope().current_density_max);
 }
 
 TEST(SolidOxideCell, ConcentrationLossHasASteamAndAHydrogenTerm) {
     // Steam depleted and hydrogen accumulated at the reaction zone, both at the outlet composition. Hand
-    // calculation at the defaults, 800 C, 1 A/cm2: x_out = 0.27 steam, 0.73 hydrogen; j_lim = 2.91965 A/cm2,
+    // calculation for the cell set here, 800 C, 1 A/cm2: x_out = 0.27 steam, 0.73 hydrogen; j_lim = 2.91965 A/cm2,
     // j_H2 = 7.89386 A/cm2; (RT/2F)[−ln(1 − 1/2.91965) + ln(1 + 1/7.89386)] = 0.0249039 V.
-    EXPECT_NEAR(soec()->evaluate({1e4, 1073.15, kAtm, kAtm}).concentration, 0.0249039, 1e-6);
+    const auto cell = soec({{"steam_utilisation", 0.7}, {"steam_inlet_fraction", 0.9},
+                            {"cathode_effective_diffusivity", 2e-5}, {"cathode_support_thickness", 4e-4}});
+    EXPECT_NEAR(cell->evaluate({1e4, 1073.15, kAtm, kAtm}).concentration, 0.0249039, 1e-6);
 }
 
 TEST(SolidOxideCell, ErrorsOutsideEnvelopeNameTheLimit) {

@@ -15,11 +15,12 @@ from conftest import assert_same
 # A PEM plant whose anode gas stays below the alarm levels (the fits run without warnings of the
 # solve), at 80 degC.
 PLANT = {"technology": "pem", "stack": {"cells": 100, "active_area": 0.1},
-         "cell": {"h2_recombination_fraction_anode": 0.9},
+         "cell": {"h2_recombination_fraction_anode": 0.9, "anode_exchange_current_density": 1e-3,
+                  "contact_resistance": 1e-5},
          "operating": {"spec": "current_density", "temperature": "80 degC"}}
 FREE = ["anode_exchange_current_density", "contact_resistance"]
 FREE_NAMES = ["param.cell.anode_exchange_current_density", "param.cell.contact_resistance"]
-# Start values 30 % off the plant's (the registry defaults 1e-3 A/m2 and 1e-5 ohm m2).
+# Start values 30 % off the plant's (1e-3 A/m2 and 1e-5 ohm m2, set in PLANT).
 START = {"param.cell.anode_exchange_current_density": 1.3e-3, "param.cell.contact_resistance": 1.3e-5}
 
 

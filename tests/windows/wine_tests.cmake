@@ -20,6 +20,11 @@ foreach(tool ELY_MINGW_CXX ELY_WIDL ELY_WINE ELY_WINESERVER ELY_MINGW_OBJDUMP)
   endif()
 endforeach()
 string(REPLACE ";" ", " ELY_WINE_MISSING "${ELY_WINE_MISSING}")
+string(REPLACE "ELY_MINGW_CXX" "x86_64-w64-mingw32-g++-posix (g++-mingw-w64-x86-64-posix)" ELY_WINE_MISSING "${ELY_WINE_MISSING}")
+string(REPLACE "ELY_WIDL" "x86_64-w64-mingw32-widl (mingw-w64-tools)" ELY_WINE_MISSING "${ELY_WINE_MISSING}")
+string(REPLACE "ELY_WINESERVER" "wineserver (wine64)" ELY_WINE_MISSING "${ELY_WINE_MISSING}")
+string(REPLACE "ELY_WINE" "wine64 (wine64)" ELY_WINE_MISSING "${ELY_WINE_MISSING}")
+string(REPLACE "ELY_MINGW_OBJDUMP" "x86_64-w64-mingw32-objdump (binutils-mingw-w64-x86-64)" ELY_WINE_MISSING "${ELY_WINE_MISSING}")
 # Sanitizer and fuzzing builds leave the Windows side to the plain build (it would only repeat
 # the same cross build): their Wine tests say so and count as skipped.
 set(ELY_WINE_SKIP_REASON "")
@@ -28,11 +33,6 @@ if(NOT ELY_SANITIZE STREQUAL "" OR ELY_FUZZ)
 elseif(NOT ELY_WINE_MISSING STREQUAL "")
   set(ELY_WINE_SKIP_REASON "${ELY_WINE_MISSING} not found; scripts/install-deps installs them")
 endif()
-string(REPLACE "ELY_MINGW_CXX" "x86_64-w64-mingw32-g++-posix (g++-mingw-w64-x86-64-posix)" ELY_WINE_MISSING "${ELY_WINE_MISSING}")
-string(REPLACE "ELY_WIDL" "x86_64-w64-mingw32-widl (mingw-w64-tools)" ELY_WINE_MISSING "${ELY_WINE_MISSING}")
-string(REPLACE "ELY_WINESERVER" "wineserver (wine64)" ELY_WINE_MISSING "${ELY_WINE_MISSING}")
-string(REPLACE "ELY_WINE" "wine64 (wine64)" ELY_WINE_MISSING "${ELY_WINE_MISSING}")
-string(REPLACE "ELY_MINGW_OBJDUMP" "x86_64-w64-mingw32-objdump (binutils-mingw-w64-x86-64)" ELY_WINE_MISSING "${ELY_WINE_MISSING}")
 
 set(ELY_WINDOWS_BUILD ${PROJECT_BINARY_DIR}/windows)
 set(ELY_WINE_PREFIX ${PROJECT_BINARY_DIR}/wine)
@@ -52,8 +52,14 @@ endif()
 # ely_wine_test(<name> <case> [args...]): runs `wine.sh <case> args...` with the cross build and
 # the prefix ready, or reports the test as skipped naming the missing tools.
 function(ely_wine_test name case)
+  ely_wine_script_test(${name} ${ELY_WINE_SCRIPT} ${case} ${ARGN})
+endfunction()
+
+# ely_wine_script_test(<name> <script> [args...]): the same for a bash script of another folder
+# (tests/fmi/wine_fmu.sh), with the same environment.
+function(ely_wine_script_test name script)
   if(ELY_WINE_SKIP_REASON STREQUAL "")
-    add_test(NAME ${name} COMMAND bash ${ELY_WINE_SCRIPT} ${case} ${ARGN})
+    add_test(NAME ${name} COMMAND bash ${script} ${ARGN})
     set_tests_properties(${name} PROPERTIES
       FIXTURES_REQUIRED "ely_windows_build;ely_wine_prefix" RESOURCE_LOCK wine TIMEOUT 600 SKIP_RETURN_CODE 77
       ENVIRONMENT "ELY_WINE=${ELY_WINE};ELY_WINESERVER=${ELY_WINESERVER};WINEPREFIX=${ELY_WINE_PREFIX};ELY_WINDOWS_BUILD=${ELY_WINDOWS_BUILD};ELY_SOURCE_DIR=${PROJECT_SOURCE_DIR};ELY_OBJDUMP=${ELY_MINGW_OBJDUMP};ELY_WORK_DIR=${CMAKE_CURRENT_BINARY_DIR}/${name}")
