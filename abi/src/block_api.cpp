@@ -180,6 +180,21 @@ int32_t finish_batch(const BatchTally& tally, bool cancelled) {
     return ELY_OK;
 }
 
+// The single-thread batch (rows or columns): checked, every point in order on one working copy, progress
+// every 1024 points and after the last.
+int32_t solve_batch_one_thread(const BatchArgs& a, ely_progress_fn progress, void* user) {
+    check_batch(a);
+    BatchTally tally;
+    bool cancelled = false;
+    const size_t reached = solve_rows(a, 0, a.n_points, tally, [&](size_t k) {
+        if (progress && ((k + 1) % 1024 == 0 || k + 1 == a.n_points) && progress(k + 1, a.n_points, user) != 0)
+            cancelled = true;
+        return !cancelled;
+    });
+    mark_cancelled(a, reached, a.n_points);
+    return finish_batch(tally, cancelled);
+}
+
 // Points per piece of a threaded batch: a fixed partition, so results do not depend on the thread count.
 constexpr size_t kThreadPiece = 8 * ely::batch::PemBatch::kChunk;
 }  // namespace
@@ -317,16 +332,7 @@ ELY_API int32_t ely_block_solve_batch(const ely_block* block, size_t n_points, i
                                       ely_progress_fn progress, void* user) {
     return guard([&] {
         const BatchArgs a{block, n_points, n_inputs, input_indices, inputs, n_outputs, output_indices, outputs, point_status};
-        check_batch(a);
-        BatchTally tally;
-        bool cancelled = false;
-        const size_t reached = solve_rows(a, 0, n_points, tally, [&](size_t k) {
-            if (progress && ((k + 1) % 1024 == 0 || k + 1 == n_points) && progress(k + 1, n_points, user) != 0)
-                cancelled = true;
-            return !cancelled;
-        });
-        mark_cancelled(a, reached, n_points);
-        return finish_batch(tally, cancelled);
+        return solve_batch_one_thread(a, progress, user);
     });
 }
 
@@ -340,16 +346,7 @@ ELY_API int32_t ely_block_solve_batch_columns(const ely_block* block, size_t n_p
         a.by_columns = true;
         a.input_columns = input_columns;
         a.output_columns = output_columns;
-        check_batch(a);
-        BatchTally tally;
-        bool cancelled = false;
-        const size_t reached = solve_rows(a, 0, n_points, tally, [&](size_t k) {
-            if (progress && ((k + 1) % 1024 == 0 || k + 1 == n_points) && progress(k + 1, n_points, user) != 0)
-                cancelled = true;
-            return !cancelled;
-        });
-        mark_cancelled(a, reached, n_points);
-        return finish_batch(tally, cancelled);
+        return solve_batch_one_thread(a, progress, user);
     });
 }
 

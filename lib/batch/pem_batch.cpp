@@ -234,26 +234,30 @@ PemBatch::PemBatch(const Block& block, int32_t n_inputs, const int32_t* input_in
     work_.assign(kStride * (5 + slot_var_.size()), 0.0);
 }
 
-void PemBatch::run(const double* inputs, std::size_t first, std::size_t count, double* outputs, uint8_t* verdict) {
-    // Columns kStride doubles apart: a multiple of the vector width, but not of 4 KiB, so that the
-    // sixteen-odd columns do not all fall on the same L1 cache sets.
-    constexpr std::size_t n = kStride;
-    double* col[4] = {work_.data(), work_.data() + n, work_.data() + 2 * n, work_.data() + 3 * n};
-    double* verdicts = work_.data() + 4 * n;
+PemChunk PemBatch::chunk_of(std::size_t count) {
     PemChunk chunk{};
     chunk.spec = spec_;
     chunk.energy = energy_;
     chunk.streams = streams_;
     for (int c = 0; c < 4; ++c) chunk.limits[c] = input_limits_[c];
+    chunk.verdict = work_.data() + 4 * kStride;
+    chunk.count = (count + 7) / 8 * 8;  // whole vectors (the lanes past count repeat the last point)
+    return chunk;
+}
+
+void PemBatch::run(const double* inputs, std::size_t first, std::size_t count, double* outputs, uint8_t* verdict) {
+    // Columns kStride doubles apart: a multiple of the vector width, but not of 4 KiB, so that the
+    // sixteen-odd columns do not all fall on the same L1 cache sets.
+    constexpr std::size_t n = kStride;
+    double* col[4] = {work_.data(), work_.data() + n, work_.data() + 2 * n, work_.data() + 3 * n};
+    const double* verdicts = work_.data() + 4 * n;
+    PemChunk chunk = chunk_of(count);
     chunk.target = col[0];
     chunk.current_density = col[0];
     chunk.temperature = col[1];
     chunk.pressure_cathode = col[2];
     chunk.pressure_anode = col[3];
-    chunk.verdict = verdicts;
     for (std::size_t s = 0; s < slot_var_.size(); ++s) chunk.out[slot_var_[s]] = work_.data() + (5 + s) * n;
-    // Whole vectors: the lanes past count repeat the last row.
-    chunk.count = (count + 7) / 8 * 8;
 
     // Rows to columns (the kernel sends an input outside its limits to the scalar path).
     const auto ni = static_cast<std::size_t>(n_inputs_);
@@ -289,14 +293,8 @@ void PemBatch::run_columns(const double* const* inputs, std::size_t first, std::
                            uint8_t* verdict) {
     constexpr std::size_t n = kStride;
     double* col[4] = {work_.data(), work_.data() + n, work_.data() + 2 * n, work_.data() + 3 * n};
-    double* verdicts = work_.data() + 4 * n;
-    PemChunk chunk{};
-    chunk.spec = spec_;
-    chunk.energy = energy_;
-    chunk.streams = streams_;
-    for (int c = 0; c < 4; ++c) chunk.limits[c] = input_limits_[c];
-    chunk.verdict = verdicts;
-    chunk.count = (count + 7) / 8 * 8;
+    const double* verdicts = work_.data() + 4 * n;
+    PemChunk chunk = chunk_of(count);
     // Whole vectors straight from and into the caller's columns; a last part chunk through the workspace
     // (the kernel reads and writes whole vectors).
     const bool direct = chunk.count == count;

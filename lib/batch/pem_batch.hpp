@@ -52,6 +52,8 @@ public:
                      uint8_t* verdict);
 
 private:
+    PemChunk chunk_of(std::size_t count);  // the chunk's settings, verdicts in the workspace
+
     struct Source {      // where output o comes from
         int kind;        // 0 kernel output (slot), 1 row input (column), 2 constant
         int index;
