@@ -156,8 +156,7 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         const V b_a = R_F_alpha_a * ts, b_c = R_F_alpha_c * ts;  // Tafel slopes RT/(αF)
         // The spec solves (spec_solve.cpp): the current density at which the stack power or the cell
         // voltage meets the drive value, by Newton on the analytic derivative of the voltage, safeguarded
-        // by bisection in [0, j_max] per lane; converged to a few ulp (the scalar path's Brent stops at
-        // 1e-13 j_max). Drive values beyond j_max are infeasible, those below the crossover (standby) or
+        // by bisection in [0, j_max] per lane; converged to a few ulp (as the scalar path's Brent is). Drive values beyond j_max are infeasible, those below the crossover (standby) or
         // zero go to the scalar path.
         V js;
         if (c.spec == 0) {
@@ -205,8 +204,9 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
                 next = select(g == zero, x, next);
                 // Converged: a Newton step below 1e-9 x leaves an error of the order of (1e-9)² x·x q''/q'
                 // (quadratic convergence), below the rounding of the drive quantity; stopping at a step of
-                // a few ulp instead lets rounding noise bounce a lane inside its bracket for dozens of
-                // iterations. A bisection step counts only when the bracket has collapsed.
+                // a few ulp instead let rounding noise keep lanes iterating after they had converged (the
+                // power batch took four times as long). A bisection step counts only when the bracket has
+                // collapsed.
                 const M done = (inside && lanes::abs(next - x) <= 1e-9 * next) || (g == zero) ||
                                !(hi - lo > 2e-16 * hi);
                 x = select(active, next, x);
