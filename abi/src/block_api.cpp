@@ -52,12 +52,42 @@ struct BatchArgs {
     const int32_t* output_indices;
     double* outputs;
     int32_t* point_status;
+    // ely_block_solve_batch_columns: the inputs and outputs as columns (inputs and outputs unused).
+    bool by_columns = false;
+    const double* const* input_columns = nullptr;
+    double* const* output_columns = nullptr;
+
+    bool columns() const { return by_columns; }
+    double input(size_t k, int32_t i) const {
+        return input_columns ? input_columns[i][k] : inputs[k * static_cast<size_t>(n_inputs) + static_cast<size_t>(i)];
+    }
+    void output(size_t k, int32_t o, double v) const {
+        if (output_columns) output_columns[o][k] = v;
+        else outputs[k * static_cast<size_t>(n_outputs) + static_cast<size_t>(o)] = v;
+    }
 };
 
 void check_batch(const BatchArgs& a) {
     require_pointer(a.block, "block");
-    ely::capi::check_table(a.block->model, a.n_points, "n_points", a.n_inputs, a.input_indices, a.inputs, a.n_outputs,
-                           a.output_indices, a.outputs, a.point_status, "point_status");
+    if (!a.columns()) {
+        ely::capi::check_table(a.block->model, a.n_points, "n_points", a.n_inputs, a.input_indices, a.inputs, a.n_outputs,
+                               a.output_indices, a.outputs, a.point_status, "point_status");
+        return;
+    }
+    // Columns: the counts and indices as for rows; every column whenever there is a point.
+    ely::capi::check_table(a.block->model, 0, "n_points", a.n_inputs, a.input_indices, nullptr, a.n_outputs,
+                           a.output_indices, nullptr, a.point_status, "point_status");
+    if (a.n_points == 0) return;
+    require_pointer(a.point_status, "point_status");
+    if (a.n_inputs > 0) require_pointer(a.input_columns, "input_columns");
+    if (a.n_outputs > 0) require_pointer(a.output_columns, "output_columns");
+    for (int32_t i = 0; i < a.n_inputs; ++i)
+        require_pointer(a.input_columns[i], ("input_columns[" + std::to_string(i) + "]").c_str());
+    for (int32_t o = 0; o < a.n_outputs; ++o)
+        require_pointer(a.output_columns[o], ("output_columns[" + std::to_string(o) + "]").c_str());
+    if (a.n_points > std::numeric_limits<size_t>::max() / sizeof(double))
+        throw Error(ErrorKind::invalid_argument, "n_points is " + std::to_string(a.n_points) +
+                                                     ": the value arrays would exceed the address space");
 }
 
 // What the points of a range gave: their first failure and warning ("point k: message").
@@ -69,9 +99,9 @@ struct BatchTally {
 // Points [first, last) in order on a working copy of the block at the start of the batch, which returns
 // to that state after a failed point (not to the block's last successful solve: inputs, parameters and
 // the spec set since then hold for every point). The vectorized batch (lib/batch) where it applies, in
-// chunks that divide the progress interval; a point it does not take, and the first that raises an
-// alarm (for its message), on the scalar path. Points are independent at the specs it covers (a spec
-// solve's warm start moves the scalar path's answer only within its tolerance), so the order of the
+// chunks that divide the progress interval (a point it solves with alarms raised gets the scalar path's
+// message from the kernel's alarms); a point it does not take on the scalar path. Points are independent
+// (a point's answer depends on its own inputs alone, spec solves included), so the order of the
 // working copy's solves is moot. after_point(k) is asked after point k whether to go on; the index of
 // the first point not solved is returned.
 template <class AfterPoint>
@@ -79,12 +109,11 @@ size_t solve_rows(const BatchArgs& a, size_t first, size_t last, BatchTally& tal
     ely::Block work = a.block->model;
     work.keep_state_for_rollback();
     const double nan = std::numeric_limits<double>::quiet_NaN();
-    const auto solve_scalar = [&](size_t k, double* out_row) {
+    const auto solve_scalar = [&](size_t k) {
         return guard([&] {
-            const double* in_row = a.inputs + k * static_cast<size_t>(a.n_inputs);
-            for (int32_t i = 0; i < a.n_inputs; ++i) work.set(a.input_indices[i], in_row[i]);
+            for (int32_t i = 0; i < a.n_inputs; ++i) work.set(a.input_indices[i], a.input(k, i));
             const int32_t s = finish_solve(work.solve());
-            for (int32_t o = 0; o < a.n_outputs; ++o) out_row[o] = work.get(a.output_indices[o]);
+            for (int32_t o = 0; o < a.n_outputs; ++o) a.output(k, o, work.get(a.output_indices[o]));
             return s;
         });
     };
@@ -96,18 +125,24 @@ size_t solve_rows(const BatchArgs& a, size_t first, size_t last, BatchTally& tal
     uint8_t verdict[ely::batch::PemBatch::kChunk];
     size_t chunk_first = first, chunk_end = first;
     for (size_t k = first; k < last; ++k) {
-        double* out_row = a.outputs ? a.outputs + k * static_cast<size_t>(a.n_outputs) : nullptr;
         if (fast && k == chunk_end) {
             const size_t count = std::min(ely::batch::PemBatch::kChunk, last - k);
-            fast->run(a.inputs, k, count, a.outputs, verdict);
+            if (a.columns()) fast->run_columns(a.input_columns, k, count, a.output_columns, verdict);
+            else fast->run(a.inputs, k, count, a.outputs, verdict);
             chunk_first = k;
             chunk_end = k + count;
         }
         const uint8_t v = fast ? verdict[k - chunk_first] : 2;
         int32_t status;
-        if (v == 0) status = ELY_OK;
-        else if (v == 1 && !tally.first_warning.empty()) status = ELY_WARNING;
-        else status = solve_scalar(k, out_row);
+        if (v == 0) {
+            status = ELY_OK;
+        } else if (v >= 4) {  // solved by the kernel with alarms raised: the scalar path's message
+            status = ELY_WARNING;
+            if (tally.first_warning.empty())
+                tally.first_warning = "point " + std::to_string(k) + ": " + ely::batch::PemBatch::alarm_message(v - 4u);
+        } else {
+            status = solve_scalar(k);
+        }
         a.point_status[k] = status;
         if (status < 0 && tally.first_failure.empty())
             tally.first_failure = "point " + std::to_string(k) + ": " + ely_last_error();
@@ -115,7 +150,7 @@ size_t solve_rows(const BatchArgs& a, size_t first, size_t last, BatchTally& tal
             tally.first_warning = "point " + std::to_string(k) + ": " + ely_last_error();
         if (status < 0) {
             tally.any_failure = true;
-            for (int32_t o = 0; o < a.n_outputs; ++o) out_row[o] = nan;
+            for (int32_t o = 0; o < a.n_outputs; ++o) a.output(k, o, nan);
         } else if (status > 0) {
             tally.any_warning = true;
         }
@@ -129,7 +164,7 @@ void mark_cancelled(const BatchArgs& a, size_t first, size_t last) {
     const double nan = std::numeric_limits<double>::quiet_NaN();
     for (size_t k = first; k < last; ++k) {
         a.point_status[k] = ELY_ERR_CANCELLED;
-        for (int32_t o = 0; o < a.n_outputs; ++o) a.outputs[k * static_cast<size_t>(a.n_outputs) + static_cast<size_t>(o)] = nan;
+        for (int32_t o = 0; o < a.n_outputs; ++o) a.output(k, o, nan);
     }
 }
 
@@ -143,6 +178,21 @@ int32_t finish_batch(const BatchTally& tally, bool cancelled) {
     if (tally.any_failure) { ely::capi::set_last_error("some points failed; first: " + tally.first_failure); return ELY_PARTIAL; }
     if (tally.any_warning) { ely::capi::set_last_error("some points warned; first: " + tally.first_warning); return ELY_WARNING; }
     return ELY_OK;
+}
+
+// The single-thread batch (rows or columns): checked, every point in order on one working copy, progress
+// every 1024 points and after the last.
+int32_t solve_batch_one_thread(const BatchArgs& a, ely_progress_fn progress, void* user) {
+    check_batch(a);
+    BatchTally tally;
+    bool cancelled = false;
+    const size_t reached = solve_rows(a, 0, a.n_points, tally, [&](size_t k) {
+        if (progress && ((k + 1) % 1024 == 0 || k + 1 == a.n_points) && progress(k + 1, a.n_points, user) != 0)
+            cancelled = true;
+        return !cancelled;
+    });
+    mark_cancelled(a, reached, a.n_points);
+    return finish_batch(tally, cancelled);
 }
 
 // Points per piece of a threaded batch: a fixed partition, so results do not depend on the thread count.
@@ -282,16 +332,21 @@ ELY_API int32_t ely_block_solve_batch(const ely_block* block, size_t n_points, i
                                       ely_progress_fn progress, void* user) {
     return guard([&] {
         const BatchArgs a{block, n_points, n_inputs, input_indices, inputs, n_outputs, output_indices, outputs, point_status};
-        check_batch(a);
-        BatchTally tally;
-        bool cancelled = false;
-        const size_t reached = solve_rows(a, 0, n_points, tally, [&](size_t k) {
-            if (progress && ((k + 1) % 1024 == 0 || k + 1 == n_points) && progress(k + 1, n_points, user) != 0)
-                cancelled = true;
-            return !cancelled;
-        });
-        mark_cancelled(a, reached, n_points);
-        return finish_batch(tally, cancelled);
+        return solve_batch_one_thread(a, progress, user);
+    });
+}
+
+ELY_API int32_t ely_block_solve_batch_columns(const ely_block* block, size_t n_points, int32_t n_inputs,
+                                              const int32_t* input_indices, const double* const* input_columns,
+                                              int32_t n_outputs, const int32_t* output_indices,
+                                              double* const* output_columns, int32_t* point_status,
+                                              ely_progress_fn progress, void* user) {
+    return guard([&] {
+        BatchArgs a{block, n_points, n_inputs, input_indices, nullptr, n_outputs, output_indices, nullptr, point_status};
+        a.by_columns = true;
+        a.input_columns = input_columns;
+        a.output_columns = output_columns;
+        return solve_batch_one_thread(a, progress, user);
     });
 }
 

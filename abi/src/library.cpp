@@ -25,15 +25,22 @@ void set_last_error(const std::string& message) noexcept {
     // ely_last_error() hands out a C string: an embedded NUL would cut the message there, so it
     // is written as \x00. The length is bounded whatever user text a message quotes; a cut
     // falls on a UTF-8 character boundary.
+    char* const buffer = t_last_error;  // one look-up of the thread's buffer (a call in a shared library)
+    // The usual message: no NUL, within the bound: copied whole.
+    if (message.size() <= kMaxMessageBytes && std::memchr(message.data(), '\0', message.size()) == nullptr) {
+        std::memcpy(buffer, message.data(), message.size());
+        buffer[message.size()] = '\0';
+        return;
+    }
     std::size_t out = 0, i = 0;
     for (; i < message.size(); ++i) {
         const bool nul = message[i] == '\0';
         if (out + (nul ? 4 : 1) > kMaxMessageBytes) break;
         if (nul) {
-            std::memcpy(t_last_error + out, "\\x00", 4);
+            std::memcpy(buffer + out, "\\x00", 4);
             out += 4;
         } else {
-            t_last_error[out++] = message[i];
+            buffer[out++] = message[i];
         }
     }
     if (i < message.size()) {
@@ -41,10 +48,10 @@ void set_last_error(const std::string& message) noexcept {
             --out;
             --i;
         }
-        std::memcpy(t_last_error + out, kCutNote, sizeof kCutNote - 1);
+        std::memcpy(buffer + out, kCutNote, sizeof kCutNote - 1);
         out += sizeof kCutNote - 1;
     }
-    t_last_error[out] = '\0';
+    buffer[out] = '\0';
 }
 
 void clear_last_error() noexcept { t_last_error[0] = '\0'; }

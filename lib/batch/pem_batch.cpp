@@ -66,6 +66,21 @@ bool kernel_gives(Var v) {
 
 }  // namespace
 
+std::string PemBatch::alarm_message(unsigned alarm_bits) {
+    // As Block::alarm_message (unit/alarms.cpp): the labels of the alarms raised, the trip level
+    // instead of the warning level.
+    std::string m = "solved with alarms:";
+    const char* separator = " ";
+    for (int a = alarm_first; a <= alarm_last; ++a) {
+        if (!(alarm_bits & (1u << (a - alarm_first)))) continue;
+        if (a == alarm_h2_in_o2_warning && (alarm_bits & (1u << (alarm_h2_in_o2_trip - alarm_first)))) continue;
+        m += separator;
+        m += variable_info(static_cast<Var>(a)).label;
+        separator = "; ";
+    }
+    return m;
+}
+
 std::vector<const char*> instruction_sets() {
     std::vector<const char*> names;
     for (const Isa& isa : kIsas)
@@ -198,61 +213,132 @@ PemBatch::PemBatch(const Block& block, int32_t n_inputs, const int32_t* input_in
         isa_ = candidate.name;
         break;
     }
-    work_.assign(kChunk * (5 + slot_var_.size()), 0.0);
+    for (Var v : slot_var_) {
+        energy_ |= v == heat_duty || v == heat_gas_coolers || v == perf_efficiency_hhv || v == perf_efficiency_lhv;
+        streams_ |= v == feed_water || v == perf_water_per_hydrogen || (v >= stream_cathode_mass_flow && v <= stream_dryer_loss_mass_flow);
+    }
+    for (int c = 0; c < 4; ++c)
+        if (column_[c] >= 0) {
+            const Limit& l = limits_[static_cast<std::size_t>(column_[c])];
+            input_limits_[c] = {true, l.min_exclusive, l.min, l.max};
+        }
+    for (std::size_t o = 0; o < sources_.size(); ++o) {
+        const Source& s = sources_[o];
+        if (s.kind == 0) {
+            from_kernel_.push_back({o, (5 + static_cast<std::size_t>(s.index)) * kStride});
+            if (slot_column_.size() <= static_cast<std::size_t>(s.index)) slot_column_.push_back(o);  // its first column
+        }
+        else if (s.kind == 1) from_row_.push_back({o, static_cast<std::size_t>(s.index)});
+        else fixed_outputs_.push_back({o, s.constant});
+    }
+    work_.assign(kStride * (5 + slot_var_.size()), 0.0);
+}
+
+PemChunk PemBatch::chunk_of(std::size_t count) {
+    PemChunk chunk{};
+    chunk.spec = spec_;
+    chunk.energy = energy_;
+    chunk.streams = streams_;
+    for (int c = 0; c < 4; ++c) chunk.limits[c] = input_limits_[c];
+    chunk.verdict = work_.data() + 4 * kStride;
+    chunk.count = (count + 7) / 8 * 8;  // whole vectors (the lanes past count repeat the last point)
+    return chunk;
 }
 
 void PemBatch::run(const double* inputs, std::size_t first, std::size_t count, double* outputs, uint8_t* verdict) {
-    constexpr std::size_t n = kChunk;
+    // Columns kStride doubles apart: a multiple of the vector width, but not of 4 KiB, so that the
+    // sixteen-odd columns do not all fall on the same L1 cache sets.
+    constexpr std::size_t n = kStride;
     double* col[4] = {work_.data(), work_.data() + n, work_.data() + 2 * n, work_.data() + 3 * n};
-    double* verdicts = work_.data() + 4 * n;
-    PemChunk chunk{};
-    chunk.spec = spec_;
-    for (Var v : slot_var_)
-        chunk.energy |= v == heat_duty || v == heat_gas_coolers || v == perf_efficiency_hhv || v == perf_efficiency_lhv;
+    const double* verdicts = work_.data() + 4 * n;
+    PemChunk chunk = chunk_of(count);
     chunk.target = col[0];
     chunk.current_density = col[0];
     chunk.temperature = col[1];
     chunk.pressure_cathode = col[2];
     chunk.pressure_anode = col[3];
-    chunk.verdict = verdicts;
     for (std::size_t s = 0; s < slot_var_.size(); ++s) chunk.out[slot_var_[s]] = work_.data() + (5 + s) * n;
-    // Whole vectors: the lanes past count repeat the last row.
-    chunk.count = (count + 7) / 8 * 8;
 
-    // Rows to columns; an input outside its limits (Block::set) goes to the scalar path.
+    // Rows to columns (the kernel sends an input outside its limits to the scalar path).
     const auto ni = static_cast<std::size_t>(n_inputs_);
-    std::fill(verdict, verdict + count, uint8_t{0});
-    for (int c = 0; c < 4; ++c)
-        if (column_[c] < 0) std::fill(col[c], col[c] + chunk.count, fixed_[c]);
-    for (std::size_t r = 0; r < chunk.count; ++r) {
-        const std::size_t row = first + std::min(r, count - 1);
-        const double* in = inputs + row * ni;
-        for (int c = 0; c < 4; ++c)
-            if (column_[c] >= 0) col[c][r] = in[column_[c]];
-    }
-    for (std::size_t i = 0; i < ni; ++i) {
-        const Limit& l = limits_[i];
-        for (std::size_t r = 0; r < count; ++r) {
-            const double x = inputs[(first + r) * ni + i];
-            if (!std::isfinite(x) || (l.min_exclusive ? !(x > l.min) : x < l.min) || x > l.max) verdict[r] = 2;
+    const double* rows = inputs + first * ni;
+    for (int c = 0; c < 4; ++c) {
+        double* dst = col[c];
+        if (column_[c] < 0) {
+            std::fill(dst, dst + chunk.count, fixed_[c]);
+            continue;
         }
+        const double* src = rows + column_[c];
+        for (std::size_t r = 0; r < count; ++r) dst[r] = src[r * ni];
+        for (std::size_t r = count; r < chunk.count; ++r) dst[r] = dst[count - 1];
     }
 
     kernel_(k_, chunk);
 
+    for (std::size_t r = 0; r < count; ++r) verdict[r] = static_cast<uint8_t>(verdicts[r]);
     const auto no = static_cast<std::size_t>(n_outputs_);
+    if (no == 0 || !outputs) return;
+    // Every row's outputs are written; those of the points not taken are overwritten by the scalar path.
+    double* out_rows = outputs + first * no;
     for (std::size_t r = 0; r < count; ++r) {
-        if (verdict[r] == 0) verdict[r] = static_cast<uint8_t>(verdicts[r]);
-        if (verdict[r] == 2) continue;
-        if (no == 0) continue;
-        double* out = outputs + (first + r) * no;
-        const double* in = inputs + (first + r) * ni;
-        for (std::size_t o = 0; o < no; ++o) {
-            const Source& s = sources_[o];
-            out[o] = s.kind == 0 ? work_[(5 + static_cast<std::size_t>(s.index)) * n + r]
-                                 : s.kind == 1 ? in[s.index] : s.constant;
+        double* out = out_rows + r * no;
+        const double* in = rows + r * ni;
+        for (const Copy& cp : from_kernel_) out[cp.output] = work_[cp.offset + r];
+        for (const Copy& cp : from_row_) out[cp.output] = in[cp.offset];
+        for (const Fixed& f : fixed_outputs_) out[f.output] = f.value;
+    }
+}
+
+void PemBatch::run_columns(const double* const* inputs, std::size_t first, std::size_t count, double* const* outputs,
+                           uint8_t* verdict) {
+    constexpr std::size_t n = kStride;
+    double* col[4] = {work_.data(), work_.data() + n, work_.data() + 2 * n, work_.data() + 3 * n};
+    const double* verdicts = work_.data() + 4 * n;
+    PemChunk chunk = chunk_of(count);
+    // Whole vectors straight from and into the caller's columns; a last part chunk through the workspace
+    // (the kernel reads and writes whole vectors).
+    const bool direct = chunk.count == count;
+    const double* in[4];
+    for (int c = 0; c < 4; ++c) {
+        if (column_[c] < 0) {
+            std::fill(col[c], col[c] + chunk.count, fixed_[c]);
+            in[c] = col[c];
+        } else if (direct) {
+            in[c] = inputs[column_[c]] + first;
+        } else {
+            const double* src = inputs[column_[c]] + first;
+            std::copy(src, src + count, col[c]);
+            std::fill(col[c] + count, col[c] + chunk.count, src[count - 1]);
+            in[c] = col[c];
         }
     }
+    chunk.target = in[0];
+    chunk.current_density = in[0];
+    chunk.temperature = in[1];
+    chunk.pressure_cathode = in[2];
+    chunk.pressure_anode = in[3];
+    for (std::size_t s = 0; s < slot_var_.size(); ++s)
+        chunk.out[slot_var_[s]] = direct ? outputs[slot_column_[s]] + first : work_.data() + (5 + s) * n;
+
+    kernel_(k_, chunk);  // an input outside its limits (Block::set) goes to the scalar path
+
+    for (std::size_t r = 0; r < count; ++r) verdict[r] = static_cast<uint8_t>(verdicts[r]);
+    // Every point's outputs are written; those of the points not taken are overwritten by the scalar path.
+    if (!direct)
+        for (std::size_t s = 0; s < slot_var_.size(); ++s) {
+            const double* src = work_.data() + (5 + s) * n;
+            std::copy(src, src + count, outputs[slot_column_[s]] + first);
+        }
+    for (const Copy& cp : from_kernel_) {
+        const std::size_t slot = (cp.offset / kStride) - 5;
+        const double* src = outputs[slot_column_[slot]] + first;
+        if (slot_column_[slot] != cp.output) std::copy(src, src + count, outputs[cp.output] + first);
+    }
+    for (const Copy& cp : from_row_) {
+        const double* src = inputs[cp.offset] + first;
+        std::copy(src, src + count, outputs[cp.output] + first);
+    }
+    for (const Fixed& f : fixed_outputs_) std::fill(outputs[f.output] + first, outputs[f.output] + first + count, f.value);
 }
 
 }  // namespace ely::batch

@@ -10,6 +10,8 @@
 //
 // Included only by kernel_*.cpp, each of which names its lane namespace and SIMD type first.
 #include <cstddef>
+#include <limits>
+#include <type_traits>
 
 #include "batch/lanes_simd.hpp"
 #include "batch/pem_kernel_types.hpp"
@@ -20,7 +22,12 @@
 ELY_KERNEL_BEGIN
 namespace batch_kernel {
 
+// Everything it calls inlined (flatten): the vector exp, log, log1p and the IF97 sums of one vector of points
+// are independent chains the processor then overlaps, where calls run them one after the other.
 template <class V>
+#if defined(__GNUC__)
+__attribute__((flatten))
+#endif
 inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
     using lanes::exp;
     using lanes::log;
@@ -49,56 +56,107 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
     const double fixed_cool_h_o2 = kernel::shomate_enthalpy(*d.oxygen, 0.0, k.gas_cooler_temperature / 1000.0);
     const double hhv = -kLiquidWaterFormationEnthalpy / M_H2, lhv = -kWaterVapourFormationEnthalpy / M_H2;
     const double area_total = k.cells * k.stacks * k.area;
+    struct Thermal {  // the terms of the stack temperature alone, for the lanes' temperatures ts
+        V ts, p_sat, inv_t, h_h2, h_o2, dh, e0, j0a, j0c, sigma, asr, h2_perm, o2_perm;
+    } th{};  // once per chunk
+    bool have_thermal = false;
+    // Divisions by the batch's constants as products with their reciprocals (a vector division costs
+    // about ten products; the results move by an ulp or so, as the vector exp/log do).
+    const double inv_2F = 1.0 / (2.0 * F), inv_4F = 1.0 / (4.0 * F), inv_F = 1.0 / F, R_2F = R / (2.0 * F);
+    const double R_F_alpha_a = R / (F * k.alpha_anode), R_F_alpha_c = R / (F * k.alpha_cathode);
+    const double inv_p0 = 1.0 / kStandardPressure, inv_thickness = 1.0 / k.thickness;
+    const double inv_jl = 1.0 / k.limiting_current_density;
+    // NIST Shomate enthalpy and entropy (thermo_kernels.hpp shomate_enthalpy, shomate_entropy) with the
+    // divisions by t, t² and 3 as products with 1/t and 1/3.
+    const auto shomate_h = [](const ShomateCoefficients& s, const V& t, const V& t2, const V& t3, const V& t4,
+                              const V& inv_t) {
+        return 1000.0 * (s.A * t + s.B * t2 * 0.5 + s.C * t3 * (1.0 / 3.0) + s.D * t4 * 0.25 - s.E * inv_t + s.F - s.H);
+    };
+    const auto shomate_s = [](const ShomateCoefficients& s, const V& t, const V& t2, const V& t3, const V& inv_t2,
+                              const V& log_t) {
+        return s.A * log_t + s.B * t + s.C * t2 * 0.5 + s.D * t3 * (1.0 / 3.0) - s.E * 0.5 * inv_t2 + s.G;
+    };
 
     for (std::size_t i = 0; i < c.count; i += W) {
         const V j = V::load_unaligned(c.current_density + i);
         const V t = V::load_unaligned(c.temperature + i);
         const V pc = V::load_unaligned(c.pressure_cathode + i);
         const V pa = V::load_unaligned(c.pressure_anode + i);
-        const auto put = [&](Var v, const V& x) {
-            if (double* o = c.out[v]) x.store_unaligned(o + i);
+        // An output asked for is stored; one not asked for is not computed (its expression is a lambda).
+        const auto put = [&](Var v, const auto& x) {
+            if (double* o = c.out[v]) {
+                if constexpr (std::is_invocable_v<decltype(x)>) {
+                    const V value = x();
+                    value.store_unaligned(o + i);
+                } else {
+                    x.store_unaligned(o + i);
+                }
+            }
         };
 
+        // The inputs' limits (Block::set refuses a value outside them, or not finite): the scalar path says so.
+        M skip = M(false);
+        const V per_point[4] = {c.spec == 0 ? j : V::load_unaligned(c.target + i), t, pc, pa};
+        for (int n = 0; n < 4; ++n) {
+            const batch::InputLimit& l = c.limits[n];
+            if (!l.check) continue;
+            const V x = per_point[n];
+            skip = skip || !(lanes::abs(x) <= std::numeric_limits<double>::max()) || x > l.max ||
+                   (l.min_exclusive ? !(x > l.min) : x < l.min);
+        }
         // Envelope (cell.cpp check_envelope): outside it the scalar solve fails; j = 0 is open circuit.
-        M skip = !(t >= k.t_min && t <= k.t_max && pa >= k.p_min && pa <= k.p_max && pc >= k.p_min && pc <= k.p_max);
+        skip = skip || !(t >= k.t_min && t <= k.t_max && pa >= k.p_min && pa <= k.p_max && pc >= k.p_min && pc <= k.p_max);
         if (c.spec == 0) skip = skip || !(j > zero && j <= k.j_max && j < k.limiting_current_density);
         // Keep the lanes that are not taken finite and inside every range (their results are dropped).
         const V ts = select(skip, V(0.5 * (k.t_min + k.t_max)), t);
         const V pcs = select(skip, V(k.p_max), pc);
         const V pas = select(skip, V(k.p_max), pa);
 
-        // ---- thermodynamics at the stack temperature (reaction.cpp, water.cpp, species.cpp) ----
-        const V p_sat = kernel::saturation_pressure_eq30(ts);
+        // ---- the terms of the stack temperature alone: thermodynamics (reaction.cpp, water.cpp,
+        // species.cpp) and the cell's Arrhenius factors (pem.cpp). Once per distinct temperature: kept
+        // from the previous vector when every lane has its temperature (a sweep at one temperature, a
+        // profile's runs), else computed (one compare when every point has its own).
+        if (!(have_thermal && lanes::all_lanes(ts == th.ts))) {
+            have_thermal = true;
+            th.ts = ts;
+            th.p_sat = kernel::saturation_pressure_eq30(ts);
+            th.inv_t = 1.0 / ts;
+            const V tt = ts * 1e-3, inv_tt = 1000.0 * th.inv_t;
+            const V tt2 = tt * tt, tt3 = tt2 * tt, tt4 = tt3 * tt, inv_tt2 = inv_tt * inv_tt;
+            const V log_tt = log(tt);
+            th.h_h2 = shomate_h(*d.hydrogen, tt, tt2, tt3, tt4, inv_tt);
+            th.h_o2 = shomate_h(*d.oxygen, tt, tt2, tt3, tt4, inv_tt);
+            const V s_h2 = shomate_s(*d.hydrogen, tt, tt2, tt3, inv_tt2, log_tt);
+            const V s_o2 = shomate_s(*d.oxygen, tt, tt2, tt3, inv_tt2, log_tt);
+            const auto w = kernel::region1_enthalpy_entropy(kernel::region1_temperature(ts, false),
+                                                            max(V(kStandardPressure), th.p_sat));
+            const V h_w = d.liquid_formation_enthalpy + M_H2O * (w.enthalpy - d.region1_h_ref);
+            const V s_w = d.liquid_entropy_298 + M_H2O * (w.entropy - d.region1_s_ref);
+            th.dh = th.h_h2 + 0.5 * th.h_o2 - h_w;
+            const V ds = s_h2 + 0.5 * s_o2 - s_w;
+            th.e0 = (th.dh - ts * ds) * inv_2F;
+            const V x_t = th.inv_t - k.inverse_reference_temperature;
+            th.j0a = k.j0_anode * exp(k.ea_anode * x_t);
+            th.j0c = k.j0_cathode * exp(k.ea_cathode * x_t);
+            th.sigma = k.sigma_303_percent * exp(1268.0 * (1.0 / 303.0 - th.inv_t));
+            th.asr = k.thickness / th.sigma + k.contact_resistance;
+            th.h2_perm = k.h2_permeability * exp(k.h2_ea * x_t);
+            th.o2_perm = k.o2_permeability * exp(k.o2_ea * x_t);
+        }
+        const V p_sat = th.p_sat, h_h2 = th.h_h2, h_o2 = th.h_o2, dh = th.dh, e0 = th.e0;
+        const V j0a = th.j0a, j0c = th.j0c, asr = th.asr, h2_perm = th.h2_perm, o2_perm = th.o2_perm;
         skip = skip || !(pcs > p_sat) || !(pas > p_sat);
-        const V tt = ts / 1000.0;
-        const V log_tt = log(tt);
-        const V h_h2 = kernel::shomate_enthalpy(*d.hydrogen, 0.0, tt), s_h2 = kernel::shomate_entropy(*d.hydrogen, tt, log_tt);
-        const V h_o2 = kernel::shomate_enthalpy(*d.oxygen, 0.0, tt), s_o2 = kernel::shomate_entropy(*d.oxygen, tt, log_tt);
-        const auto stack_part = kernel::region1_temperature(ts, false);
-        const auto w = kernel::region1_enthalpy_entropy(stack_part, max(V(kStandardPressure), p_sat));
-        const V h_w = d.liquid_formation_enthalpy + M_H2O * (w.enthalpy - d.region1_h_ref);
-        const V s_w = d.liquid_entropy_298 + M_H2O * (w.entropy - d.region1_s_ref);
-        const V dh = h_h2 + 0.5 * h_o2 - h_w;
-        const V ds = s_h2 + 0.5 * s_o2 - s_w;
-        const V dg = dh - ts * ds;
         const V p_h2 = pcs - p_sat, p_o2 = pas - p_sat;
-        const V e0 = dg / (2 * F);
-        const V q = (p_h2 / kStandardPressure) * lanes::sqrt(p_o2 / kStandardPressure) / 1.0;
-        const V e_rev = e0 + R * ts / (2.0 * F) * log(q);
-        const V e_tn = dh / (2 * F);
+        const V q = (p_h2 * inv_p0) * lanes::sqrt(p_o2 * inv_p0);
+        const V rt_2f = R_2F * ts;
+        const V e_rev = e0 + rt_2f * log(q);
+        const auto e_tn = [&] { return V(dh * inv_2F); };
 
         // ---- cell (pem.cpp evaluate) ----
-        const V inv_t = 1.0 / ts;
-        const V x_t = inv_t - k.inverse_reference_temperature;
-        const V f = F / (R * ts);
-        const V j0a = k.j0_anode * exp(k.ea_anode * x_t);
-        const V j0c = k.j0_cathode * exp(k.ea_cathode * x_t);
-        const V sigma = k.sigma_303_percent * exp(1268.0 * (1.0 / 303.0 - inv_t));
-        const V asr = k.thickness / sigma + k.contact_resistance;
+        const V b_a = R_F_alpha_a * ts, b_c = R_F_alpha_c * ts;  // Tafel slopes RT/(αF)
         // The spec solves (spec_solve.cpp): the current density at which the stack power or the cell
         // voltage meets the drive value, by Newton on the analytic derivative of the voltage, safeguarded
-        // by bisection in [0, j_max] per lane; converged to a few ulp (the scalar path's Brent stops at
-        // 1e-13 j_max). Drive values beyond j_max are infeasible, those below the crossover (standby) or
+        // by bisection in [0, j_max] per lane; converged to a few ulp (as the scalar path's Brent is). Drive values beyond j_max are infeasible, those below the crossover (standby) or
         // zero go to the scalar path.
         V js;
         if (c.spec == 0) {
@@ -106,9 +164,10 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         } else {
             const V target = V::load_unaligned(c.target + i);
             const double kp = k.area * k.stacks * k.cells;
-            const V ba = 1.0 / (k.alpha_anode * f), bc = 1.0 / (k.alpha_cathode * f);
+            const V ba = b_a, bc = b_c;
             const V two_j0a = 2.0 * j0a, two_j0c = 2.0 * j0c;
-            const V b_conc = R * ts / (2 * F);
+            const V inv_two_j0a = 1.0 / two_j0a, inv_two_j0c = 1.0 / two_j0c;
+            const V b_conc = rt_2f;
             const double r_deg = k.degradation_resistance * k.hours, v_deg = k.degradation_voltage * k.hours;
             // asinh(x/a) = ln((x + √(x² + a²))/a) for x >= 0, sharing the root with the derivative; the
             // concentration term as ln((j_lim − x)/j_lim). The iteration converges to the root of this
@@ -116,9 +175,11 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
             const double jl = k.limiting_current_density;
             const auto quantity = [&](const V& x, V& dq) {
                 const V sa = lanes::sqrt(x * x + two_j0a * two_j0a), sc = lanes::sqrt(x * x + two_j0c * two_j0c);
-                const V v = e_rev + log((x + sa) / two_j0a) * ba + log((x + sc) / two_j0c) * bc + x * asr + v_deg +
-                            r_deg * x - b_conc * log((jl - x) / jl);
-                const V dv = ba / sa + bc / sc + asr + r_deg + b_conc / (jl - x);
+                const V v = e_rev + log((x + sa) * inv_two_j0a) * ba + log((x + sc) * inv_two_j0c) * bc + x * asr + v_deg +
+                            r_deg * x - b_conc * log((jl - x) * inv_jl);
+                // One division for the three: ba/sa + bc/sc + b_conc/(jl − x).
+                const V rest = jl - x;
+                const V dv = (ba * sc * rest + bc * sa * rest + b_conc * (sa * sc)) / (sa * sc * rest) + asr + r_deg;
                 if (c.spec == 1) {
                     dq = kp * (v + x * dv);
                     return kp * x * v;
@@ -137,10 +198,17 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
                 const M above = g > zero;
                 hi = select(above, x, hi);
                 lo = select(above, lo, x);
-                V next = x - g / dq;
-                next = select((next >= lo) && (next <= hi), next, 0.5 * (lo + hi));  // false for NaN too
+                const V newton = x - g / dq;
+                const M inside = (newton >= lo) && (newton <= hi);  // false for NaN too
+                V next = select(inside, newton, 0.5 * (lo + hi));
                 next = select(g == zero, x, next);
-                const M done = (lanes::abs(next - x) <= 2e-16 * next) || (g == zero) || !(hi - lo > 2e-16 * hi);
+                // Converged: a Newton step below 1e-9 x leaves an error of the order of (1e-9)² x·x q''/q'
+                // (quadratic convergence), below the rounding of the drive quantity; stopping at a step of
+                // a few ulp instead let rounding noise keep lanes iterating after they had converged (the
+                // power batch took four times as long). A bisection step counts only when the bracket has
+                // collapsed.
+                const M done = (inside && lanes::abs(next - x) <= 1e-9 * next) || (g == zero) ||
+                               !(hi - lo > 2e-16 * hi);
                 x = select(active, next, x);
                 active = active && !done;
             }
@@ -149,20 +217,18 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
             skip = skip || !(x < k.j_spec_max * (1.0 - 4e-16));
             js = x;
         }
-        const V conc = -R * ts / (2 * F) * lanes::log1p(-js / k.limiting_current_density);
-        const V act_a = lanes::asinh(js / (2.0 * j0a)) / (k.alpha_anode * f);
-        const V act_c = lanes::asinh(js / (2.0 * j0c)) / (k.alpha_cathode * f);
-        const V ohmic_cell = js * (k.thickness / sigma + k.contact_resistance);
+        const V conc = -rt_2f * lanes::log1p(-js * inv_jl);
+        const V act_a = lanes::asinh(js / (2.0 * j0a)) * b_a;
+        const V act_c = lanes::asinh(js / (2.0 * j0c)) * b_c;
+        const V ohmic_cell = js * asr;
         M extrapolated = (ts < k.t_fit_min) || (ts > k.t_fit_max) || (js > 0.95 * k.limiting_current_density);
 
         // Crossover (pem.cpp crossover, electrochem/crossover.cpp) and the gases (cell_support.cpp).
-        const V h2_perm = k.h2_permeability * exp(k.h2_ea * x_t);
-        const V h2_x = select(p_h2 <= zero, zero, h2_perm * p_h2 / k.thickness) +
-                       select((pcs - pas) <= zero || p_h2 <= zero, zero, k.darcy * p_h2 * (pcs - pas) / k.thickness);
-        const V o2_perm = k.o2_permeability * exp(k.o2_ea * x_t);
-        const V o2_x = select(p_o2 <= zero, zero, o2_perm * p_o2 / k.thickness);
-        const V h2_per_j = h2_perm * k.supersaturation / k.thickness;
-        const V h2_made = js / (2.0 * F), o2_made = js / (4.0 * F);
+        const V h2_x = select(p_h2 <= zero, zero, h2_perm * p_h2 * inv_thickness) +
+                       select((pcs - pas) <= zero || p_h2 <= zero, zero, k.darcy * p_h2 * (pcs - pas) * inv_thickness);
+        const V o2_x = select(p_o2 <= zero, zero, o2_perm * p_o2 * inv_thickness);
+        const V h2_per_j = h2_perm * k.supersaturation * inv_thickness;
+        const V h2_made = js * inv_2F, o2_made = js * inv_4F;
         const V h2_crossing = h2_x + h2_per_j * js;
         const V o2_burnt = min(0.5 * k.recombination_anode * h2_crossing, o2_made);
         const V o2_crossing = min(o2_x, o2_made - o2_burnt);
@@ -174,10 +240,8 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         const V a_h2 = h2_crossing - 2.0 * o2_burnt;
         skip = skip || !(h2_net > zero) || !(a_o2 > zero);
         const V consumed_h2o = c_h2 + a_h2 - 0.0;
-        const V faraday = c_h2 / (js / (2.0 * F));
         const V h2_in_o2 = select(a_h2 > zero, a_h2 / (a_h2 + a_o2), zero);
-        const V o2_in_h2 = select(c_o2 > zero, c_o2 / (c_o2 + c_h2), zero);
-        const V water_drag = k.drag * js / F;
+        const V water_drag = k.drag * js * inv_F;
 
         // ---- stack (spec_solve.cpp evaluate_at) ----
         const V degradation = k.degradation_voltage * k.hours + k.degradation_resistance * k.hours * js;
@@ -194,17 +258,21 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         const V t_cool = min(ts, V(k.gas_cooler_temperature));
         skip = skip || (t_cool < 298.0);  // below the hydrogen fit's range: the scalar solve fails
         const V tcs = select(skip, ts, t_cool);
-        const V p_sat_cool = kernel::saturation_pressure_eq30(tcs);
-        V dry[2], vapour_stack[2], vapour_out[2], condensate[2];
+        // The water vapour of the streams, where an output asked for needs it.
+        V dry[2] = {zero, zero}, vapour_stack[2] = {zero, zero}, vapour_out[2] = {zero, zero}, condensate[2] = {zero, zero};
         const V side_p[2] = {pcs, pas};
         const V side_h2[2] = {cathode_h2, anode_h2}, side_o2[2] = {cathode_o2, anode_o2};
-        for (int s = 0; s < 2; ++s) {
-            dry[s] = side_h2[s] + side_o2[s] + 0.0 + 0.0;
-            const V pv = 1.0 * p_sat;
-            vapour_stack[s] = select(dry[s] > zero, dry[s] * pv / (side_p[s] - pv), zero);
-            vapour_out[s] = select(dry[s] > zero && p_sat_cool < side_p[s],
-                                   min(vapour_stack[s], dry[s] * p_sat_cool / (side_p[s] - p_sat_cool)), vapour_stack[s]);
-            condensate[s] = vapour_stack[s] - vapour_out[s];
+        V p_sat_cool = zero;
+        if (c.streams || c.energy) {
+            p_sat_cool = kernel::saturation_pressure_eq30(tcs);
+            for (int s = 0; s < 2; ++s) {
+                dry[s] = side_h2[s] + side_o2[s] + 0.0 + 0.0;
+                const V pv = 1.0 * p_sat;
+                vapour_stack[s] = select(dry[s] > zero, dry[s] * pv / (side_p[s] - pv), zero);
+                vapour_out[s] = select(dry[s] > zero && p_sat_cool < side_p[s],
+                                       min(vapour_stack[s], dry[s] * p_sat_cool / (side_p[s] - p_sat_cool)), vapour_stack[s]);
+                condensate[s] = vapour_stack[s] - vapour_out[s];
+            }
         }
         const V drag = water_drag * area_total;
         const V drain = k.drag_returned ? zero : drag;
@@ -212,10 +280,12 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
 
         // ---- rectifier and auxiliaries (streams.cpp fill_outputs) ----
         const double rated = k.rectifier_rated_power;
-        const V x_load = rated > 0 ? V(power / rated) : zero;
-        const V rect_loss = rated * (k.rectifier_no_load + k.rectifier_linear * x_load + k.rectifier_quadratic * x_load * x_load);
-        const V aux = k.auxiliaries_fixed + k.auxiliaries_proportional * power;
-        const V plant_total = power + rect_loss + aux;
+        const auto rect_loss = [&] {
+            const V x_load = rated > 0 ? V(power / rated) : zero;
+            return V(rated * (k.rectifier_no_load + k.rectifier_linear * x_load + k.rectifier_quadratic * x_load * x_load));
+        };
+        const auto aux = [&] { return V(k.auxiliaries_fixed + k.auxiliaries_proportional * power); };
+        const auto plant_total = [&] { return V(power + rect_loss() + aux()); };
 
         // ---- energy balance (streams.cpp energy_balance), when an output asked for needs it ----
         const V loss = k.heat_loss_coefficient * k.stacks * (ts - k.ambient_temperature);
@@ -248,7 +318,7 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
             V h_out = zero;
             for (int s = 0; s < 2; ++s) h_out = h_out + (h_gas_stack[s] + vapour_stack[s] * h_vapour);
             if (!k.drag_returned) {
-                const V h_liquid_stack = liquid_enthalpy(stack_part, max(p_liquid, p_sat));
+                const V h_liquid_stack = liquid_enthalpy(kernel::region1_temperature(ts, false), max(p_liquid, p_sat));
                 h_out = h_out + select(drain > zero, drain * h_liquid_stack, zero);
             }
             const V released = power + h_in - h_out;
@@ -272,20 +342,20 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         put(cell_concentration, conc);
         put(cell_degradation, degradation);
         put(cell_current_density, js);
-        put(cell_faraday_efficiency, faraday);
+        put(cell_faraday_efficiency, [&] { return V(c_h2 / h2_made); });
         put(cell_caustic_efficiency, one);
         put(cell_chlorine_efficiency, one);
         put(stack_current, stack_i);
         put(stack_voltage, stack_v);
         put(stack_power, power);
         put(plant_rectifier_loss, rect_loss);
-        put(plant_rectifier_efficiency, power / (power + rect_loss));
+        put(plant_rectifier_efficiency, [&] { return V(power / (power + rect_loss())); });
         put(plant_auxiliary_power, aux);
         put(plant_power, plant_total);
         const V h2_kg = cathode_h2 * M_H2;
         const V water_kg = makeup * M_H2O;
         put(product_hydrogen, h2_kg);
-        put(product_oxygen, anode_o2 * M_O2);
+        put(product_oxygen, [&] { return anode_o2 * M_O2; });
         put(product_chlorine, zero);
         put(product_caustic, zero);
         put(product_caustic_solution, zero);
@@ -295,38 +365,38 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         put(feed_sweep_air, zero);
         const V gas_c = dry[0] + vapour_out[0], gas_a = dry[1] + vapour_out[1];
         const auto frac = [&](const V& n, const V& total) { return select(total > zero, n / total, zero); };
-        put(stream_cathode_mass_flow, cathode_h2 * M_H2 + cathode_o2 * M_O2 + vapour_out[0] * M_H2O);
+        put(stream_cathode_mass_flow, [&] { return cathode_h2 * M_H2 + cathode_o2 * M_O2 + vapour_out[0] * M_H2O; });
         put(stream_cathode_temperature, tcs);
         put(stream_cathode_pressure, pcs);
-        put(stream_cathode_x_h2, frac(cathode_h2, gas_c));
-        put(stream_cathode_x_o2, frac(cathode_o2, gas_c));
-        put(stream_cathode_x_h2o, frac(vapour_out[0], gas_c));
-        put(stream_anode_mass_flow, anode_o2 * M_O2 + anode_h2 * M_H2 + 0.0 + 0.0 + vapour_out[1] * M_H2O);
+        put(stream_cathode_x_h2, [&] { return frac(cathode_h2, gas_c); });
+        put(stream_cathode_x_o2, [&] { return frac(cathode_o2, gas_c); });
+        put(stream_cathode_x_h2o, [&] { return frac(vapour_out[0], gas_c); });
+        put(stream_anode_mass_flow, [&] { return anode_o2 * M_O2 + anode_h2 * M_H2 + 0.0 + 0.0 + vapour_out[1] * M_H2O; });
         put(stream_anode_temperature, tcs);
         put(stream_anode_pressure, pas);
-        put(stream_anode_x_o2, frac(anode_o2, gas_a));
-        put(stream_anode_x_h2, frac(anode_h2, gas_a));
-        put(stream_anode_x_cl2, frac(zero, gas_a));
-        put(stream_anode_x_h2o, frac(vapour_out[1], gas_a));
-        put(stream_anode_x_n2, frac(zero, gas_a));
-        put(stream_condensate_mass_flow, condensate_total * M_H2O);
-        put(stream_drain_mass_flow, drain * M_H2O);
-        put(stream_dryer_loss_mass_flow, vapour_out[0] * M_H2O);
+        put(stream_anode_x_o2, [&] { return frac(anode_o2, gas_a); });
+        put(stream_anode_x_h2, [&] { return frac(anode_h2, gas_a); });
+        put(stream_anode_x_cl2, [&] { return frac(zero, gas_a); });
+        put(stream_anode_x_h2o, [&] { return frac(vapour_out[1], gas_a); });
+        put(stream_anode_x_n2, [&] { return frac(zero, gas_a); });
+        put(stream_condensate_mass_flow, [&] { return condensate_total * M_H2O; });
+        put(stream_drain_mass_flow, [&] { return drain * M_H2O; });
+        put(stream_dryer_loss_mass_flow, [&] { return vapour_out[0] * M_H2O; });
         put(gas_h2_in_o2, h2_in_o2);
-        put(gas_o2_in_h2, o2_in_h2);
+        put(gas_o2_in_h2, [&] { return select(c_o2 > zero, c_o2 / (c_o2 + c_h2), zero); });
         put(gas_o2_in_cl2, zero);
         put(heat_loss, loss);
         put(heat_duty, duty);
         put(heat_gas_coolers, gas_coolers);
         put(heat_feed_heating, zero);
         const V energy_in = power + 0.0 + max(zero, -duty);  // NaN without the energy balance (not stored then)
-        put(perf_specific_energy, power / h2_kg);
-        put(perf_specific_energy_plant, plant_total / h2_kg);
-        put(perf_efficiency_hhv, select(energy_in > zero, h2_kg * hhv / energy_in, zero));
-        put(perf_efficiency_lhv, select(energy_in > zero, h2_kg * lhv / energy_in, zero));
-        put(perf_water_per_hydrogen, water_kg / h2_kg);
+        put(perf_specific_energy, [&] { return power / h2_kg; });
+        put(perf_specific_energy_plant, [&] { return V(plant_total() / h2_kg); });
+        put(perf_efficiency_hhv, [&] { return select(energy_in > zero, h2_kg * hhv / energy_in, zero); });
+        put(perf_efficiency_lhv, [&] { return select(energy_in > zero, h2_kg * lhv / energy_in, zero); });
+        put(perf_water_per_hydrogen, [&] { return water_kg / h2_kg; });
         put(perf_specific_energy_chlorine, nan);
-        put(perf_load_fraction, js / k.rated_current_density);
+        put(perf_load_fraction, [&] { return js / k.rated_current_density; });
         put(perf_specific_energy_caustic, nan);
         put(perf_salt_per_chlorine, nan);
         put(perf_water_per_chlorine, nan);
@@ -344,7 +414,10 @@ inline void pem_points(const batch::PemConstants& k, const batch::PemChunk& c) {
         put(alarm_load_low, select(a_low, one, zero));
         put(alarm_extrapolated, select(extrapolated, one, zero));
         put(alarm_any, select(any, one, zero));
-        select(skip, V(2.0), select(any, one, zero)).store_unaligned(c.verdict + i);
+        // The verdict: 0 solved, 2 not taken, 4 + the alarms raised (bit a for alarm_first + a) otherwise.
+        const V bits = select(a_warn, V(1.0), zero) + select(a_trip, V(2.0), zero) + select(a_temp, V(4.0), zero) +
+                       select(a_high, V(8.0), zero) + select(a_low, V(16.0), zero) + select(extrapolated, V(32.0), zero);
+        select(skip, V(2.0), select(any, 4.0 + bits, zero)).store_unaligned(c.verdict + i);
     }
 }
 

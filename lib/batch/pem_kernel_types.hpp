@@ -33,12 +33,22 @@ struct PemConstants {
     double feed_saturation_pressure;  // Pa, at feed_temperature
 };
 
+/// The limits of a per-point input (its variable's: Block::set refuses a value outside them).
+struct InputLimit {
+    bool check;  // the input is per point (a column of the batch)
+    bool min_exclusive;
+    double min, max;
+};
+
 /// One chunk of points: inputs (padded to a whole number of lanes), the outputs wanted (out[v] null
-/// when variable v is not asked for) and a verdict per point: 0 solved, 1 solved with an alarm raised,
-/// 2 not taken (outside what the kernel covers: the caller solves that point on the scalar path).
+/// when variable v is not asked for) and a verdict per point: 0 solved, 2 not taken (outside what the
+/// kernel covers: the caller solves that point on the scalar path), 4 + b solved with alarms raised,
+/// bit a of b for the alarm variable alarm_first + a.
 struct PemChunk {
     int spec;     // 0 current density given, 1 stack power given, 2 cell voltage given
-    bool energy;  // an output that needs the energy balance is asked for (heat duty, gas coolers, efficiencies)
+    bool energy;   // an output that needs the energy balance is asked for (heat duty, gas coolers, efficiencies)
+    bool streams;  // an output that needs the water vapour of the streams is asked for (feed water, streams)
+    InputLimit limits[4];  // of the drive value, temperature, cathode and anode pressure
     const double* target;  // spec 1, 2: the drive value per point
     const double* current_density;
     const double* temperature;

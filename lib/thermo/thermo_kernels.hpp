@@ -51,7 +51,7 @@ namespace kernel {
 // Fills pw[k] = x^k for k = 0..N-1 by repeated multiplication: the integer powers of IF97 without pow.
 template <std::size_t N, class V>
 inline std::array<V, N> powers(const V& x) {
-    std::array<V, N> pw{};
+    std::array<V, N> pw;  // every element assigned below (no zeroing: this runs at every point)
     pw[0] = V(1.0);
     for (std::size_t k = 1; k < N; ++k) pw[k] = pw[k - 1] * x;
     return pw;
@@ -109,7 +109,7 @@ template <class V>
 struct Region1Temperature {
     V temperature, tau, y;
     std::array<int, kRegion1Groups> I{};
-    std::array<V, kRegion1Groups> p{}, d{}, dd{};
+    std::array<V, kRegion1Groups> p, d, dd;  // each group's set to zero where the group starts
 };
 
 /// At T (K); dd is filled only with second_derivative (for cp).
@@ -120,8 +120,9 @@ inline Region1Temperature<V> region1_temperature(const V& temperature, bool seco
     t.tau = kRegion1Temperature / temperature;
     t.y = t.tau - 1.222;  // >= 1.0 for T <= 623.15 K
     // The powers of Table 2 only, by short chains of products (a chain of 41 products is 41 latencies).
-    std::array<V, kRegion1MaxJ + 1> py{};
-    std::array<V, -kRegion1MinJ + 1> pyinv{};
+    // Only the powers Table 2 uses are assigned and read (no zeroing of the rest: this runs at every point).
+    std::array<V, kRegion1MaxJ + 1> py;
+    std::array<V, -kRegion1MinJ + 1> pyinv;
     {
         const V y = t.y, r = V(1.0) / t.y;
         py[0] = V(1.0), py[1] = y, py[2] = y * y, py[3] = py[2] * y, py[4] = py[2] * py[2];
@@ -168,7 +169,7 @@ template <class V, class W>
 inline Region1Gamma<V> region1_gamma(const Region1Temperature<W>& t, const V& pi, bool all) {
     const V x = 7.1 - pi;  // >= 1.05 for p <= 100 MPa
     // The exponents I of Table 2 (0..5, 8, 21, 23, 29..32) by short chains of products.
-    std::array<V, kRegion1MaxI + 1> px{};
+    std::array<V, kRegion1MaxI + 1> px;  // only the exponents of Table 2 are assigned and read
     px[0] = V(1.0), px[1] = x, px[2] = x * x, px[3] = px[2] * x, px[4] = px[2] * px[2], px[5] = px[4] * x;
     px[8] = px[4] * px[4];
     const V x16 = px[8] * px[8];

@@ -11,13 +11,25 @@ namespace ely {
 MolarProperties liquid_water(double temperature, double pressure) {
     // A few entries of memo per thread (pure function; see water_splitting in reaction.cpp): the plant's
     // balance takes water at the feed temperature, the gas coolers' outlet and the stack temperature at
-    // every point.
+    // every point. The entry used longest ago is replaced, so that the feed's and the coolers' entries,
+    // asked for at every point, stay while the stack temperature changes from point to point.
     constexpr int kEntries = 4;
-    thread_local double memo_t[kEntries] = {-1.0, -1.0, -1.0, -1.0}, memo_p[kEntries] = {-1.0, -1.0, -1.0, -1.0};
-    thread_local MolarProperties memo[kEntries]{};
-    thread_local int next = 0;
-    for (int k = 0; k < kEntries; ++k)
-        if (temperature == memo_t[k] && pressure == memo_p[k]) return memo[k];
+    struct Memo {
+        double t[kEntries] = {-1.0, -1.0, -1.0, -1.0}, p[kEntries] = {-1.0, -1.0, -1.0, -1.0};
+        MolarProperties value[kEntries]{};
+        unsigned long used[kEntries] = {0, 0, 0, 0};
+        unsigned long clock = 0;
+    };
+    thread_local Memo memo;
+    ++memo.clock;
+    int next = 0;
+    for (int k = 0; k < kEntries; ++k) {
+        if (temperature == memo.t[k] && pressure == memo.p[k]) {
+            memo.used[k] = memo.clock;
+            return memo.value[k];
+        }
+        if (memo.used[k] < memo.used[next]) next = k;
+    }
     const double M = molar_mass::H2O;
     static const auto ref = if97::region1(kStandardTemperature, kStandardPressure);
     const auto st = if97::region1(temperature, pressure);
@@ -26,10 +38,10 @@ MolarProperties liquid_water(double temperature, double pressure) {
     p.enthalpy = kLiquidWaterFormationEnthalpy + M * (st.h - ref.h);
     p.entropy = kLiquidWaterEntropy298 + M * (st.s - ref.s);
     p.gibbs = p.enthalpy - temperature * p.entropy;
-    memo_t[next] = temperature;
-    memo_p[next] = pressure;
-    memo[next] = p;
-    next = (next + 1) % kEntries;
+    memo.t[next] = temperature;
+    memo.p[next] = pressure;
+    memo.value[next] = p;
+    memo.used[next] = memo.clock;
     return p;
 }
 

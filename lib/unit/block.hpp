@@ -235,7 +235,7 @@ private:
     Spec spec_;
     std::vector<double> v_;  // by Var, then the own outputs
     double rectifier_rated_power_ = 0;
-    double last_current_density_ = -1;  // warm start of the spec solves
+    double last_current_density_ = -1;  // of the last solve (kept in saved states; the spec solves do not read it)
     mutable GasEnthalpies gas_enthalpies_[2];
     mutable int gas_enthalpies_next_ = 0;
 

@@ -12,8 +12,8 @@ namespace ely {
 
 namespace {
 // Brent stops when the bracket is narrower than 4.4e-16·j + ½·kRootTolerance·j_max: the root to a few
-// ulps, so the answer does not depend on the bracket a warm start picked (a host that solved another
-// point before gets the same result to ~1e-15 as one that did not).
+// ulps. The bracket is the point's own (no warm start from the previous point), so a block gives a
+// point the same answer, bit for bit, whatever it solved before.
 constexpr double kRootTolerance = 1e-15;
 }  // namespace
 
@@ -117,18 +117,9 @@ double Block::solve_current_density(double j_max) {
         fa = q_0 - target;
         return brent_root(f, a, b, fa, fb, kRootTolerance * j_max);
     }
-    // Warm start: bracket around the last solution when it still brackets the root.
-    if (last_current_density_ * 0.98 > j_lo && last_current_density_ * 1.02 < j_max) {
-        const double lo = last_current_density_ * 0.98, hi = last_current_density_ * 1.02;
-        const double flo = f(lo);
-        if (flo <= 0) {
-            const double fhi = f(hi);
-            if (fhi >= 0) { a = lo; b = hi; fa = flo; fb = fhi; }
-            else { a = hi; fa = fhi; }
-        } else {
-            b = lo; fb = flo;
-        }
-    }
+    // No warm start from the previous point: the bracket, and so the root and every digit of it, depend on
+    // this point alone (a block's answer does not depend on what it solved before, a batch's not on how its
+    // points are cut into pieces for threads).
     return brent_root(f, a, b, fa, fb, kRootTolerance * j_max);
 }
 

@@ -90,9 +90,14 @@ double per(double numerator, double denominator) { return denominator > 0 ? nume
 }  // namespace
 
 double Block::gas_enthalpy(Species species, double t) const {
+    // Two temperatures (the stack's and the gas coolers' outlet); a new one replaces the entry not
+    // used last, so that the coolers' stays while the stack temperature changes from point to point.
     GasEnthalpies* entry = nullptr;
-    for (auto& e : gas_enthalpies_)
-        if (e.temperature == t) entry = &e;
+    for (int k = 0; k < 2; ++k)
+        if (gas_enthalpies_[k].temperature == t) {
+            entry = &gas_enthalpies_[k];
+            gas_enthalpies_next_ = 1 - k;
+        }
     if (!entry) {
         entry = &gas_enthalpies_[gas_enthalpies_next_];
         gas_enthalpies_next_ = 1 - gas_enthalpies_next_;

@@ -70,13 +70,24 @@ struct Points {
     }
 };
 
+// A block at the spec, the points, and the indices of the four inputs and eleven outputs.
+struct Study {
+    Block blk;
+    Points pts;
+    int32_t ii[4], oi[kOutputCount];
+    Study(size_t n, const char* spec, const char* drive)
+        : blk(spec), pts(n, std::string(spec) == "power" ? &blk : nullptr),
+          ii{blk.idx(drive), blk.idx("in.temperature"), blk.idx("in.pressure_cathode"), blk.idx("in.pressure_anode")} {
+        for (int o = 0; o < kOutputCount; ++o) oi[o] = blk.idx(kOutputs[o]);
+    }
+};
+
 void run_batch(benchmark::State& state, const char* spec, const char* drive) {
-    Block blk(spec);
-    Points pts(static_cast<size_t>(state.range(0)), std::string(spec) == "power" ? &blk : nullptr);
-    const int32_t ii[] = {blk.idx(drive), blk.idx("in.temperature"), blk.idx("in.pressure_cathode"),
-                          blk.idx("in.pressure_anode")};
-    int32_t oi[kOutputCount];
-    for (int o = 0; o < kOutputCount; ++o) oi[o] = blk.idx(kOutputs[o]);
+    Study study(static_cast<size_t>(state.range(0)), spec, drive);
+    Block& blk = study.blk;
+    Points& pts = study.pts;
+    const int32_t* ii = study.ii;
+    const int32_t* oi = study.oi;
     for (auto _ : state) {
         const int32_t rc = ely_block_solve_batch(blk.b, pts.n, 4, ii, pts.in.data(), kOutputCount, oi, pts.out.data(),
                                                  pts.status.data(), nullptr, nullptr);
@@ -85,15 +96,45 @@ void run_batch(benchmark::State& state, const char* spec, const char* drive) {
     }
     state.SetItemsProcessed(static_cast<int64_t>(state.iterations()) * static_cast<int64_t>(pts.n));
 }
+
+// The same points through ely_block_solve_batch_columns (inputs and outputs as columns, as numpy keeps them).
+void run_columns(benchmark::State& state, const char* spec, const char* drive) {
+    Study study(static_cast<size_t>(state.range(0)), spec, drive);
+    Block& blk = study.blk;
+    Points& pts = study.pts;
+    const int32_t* ii = study.ii;
+    const int32_t* oi = study.oi;
+    std::vector<std::vector<double>> in(4, std::vector<double>(pts.n)), out(kOutputCount, std::vector<double>(pts.n));
+    for (size_t k = 0; k < pts.n; ++k)
+        for (size_t c = 0; c < 4; ++c) in[c][k] = pts.in[4 * k + c];
+    const double* in_ptr[4] = {in[0].data(), in[1].data(), in[2].data(), in[3].data()};
+    double* out_ptr[kOutputCount];
+    for (int o = 0; o < kOutputCount; ++o) out_ptr[o] = out[static_cast<size_t>(o)].data();
+    for (auto _ : state) {
+        const int32_t rc = ely_block_solve_batch_columns(blk.b, pts.n, 4, ii, in_ptr, kOutputCount, oi, out_ptr,
+                                                         pts.status.data(), nullptr, nullptr);
+        if (rc < 0 || rc == ELY_PARTIAL) state.SkipWithError(ely_last_error());
+        benchmark::DoNotOptimize(out_ptr[0]);
+    }
+    state.SetItemsProcessed(static_cast<int64_t>(state.iterations()) * static_cast<int64_t>(pts.n));
+}
 }  // namespace
+
+static void batch_peer_points_current_density_columns(benchmark::State& state) {
+    run_columns(state, "current_density", "in.current_density");
+}
+BENCHMARK(batch_peer_points_current_density_columns)->Arg(4096)->Arg(100000)->Unit(benchmark::kMillisecond);
+
+static void batch_peer_points_power_columns(benchmark::State& state) { run_columns(state, "power", "in.power"); }
+BENCHMARK(batch_peer_points_power_columns)->Arg(4096)->Arg(100000)->Unit(benchmark::kMillisecond);
 
 static void batch_peer_points_current_density(benchmark::State& state) {
     run_batch(state, "current_density", "in.current_density");
 }
-BENCHMARK(batch_peer_points_current_density)->Arg(100000)->Unit(benchmark::kMillisecond);
+BENCHMARK(batch_peer_points_current_density)->Arg(4096)->Arg(100000)->Unit(benchmark::kMillisecond);
 
 static void batch_peer_points_power(benchmark::State& state) { run_batch(state, "power", "in.power"); }
-BENCHMARK(batch_peer_points_power)->Arg(100000)->Unit(benchmark::kMillisecond);
+BENCHMARK(batch_peer_points_power)->Arg(4096)->Arg(100000)->Unit(benchmark::kMillisecond);
 
 // One point per call through the C interface, the temperature changing at every call (as a
 // co-simulation step or a host's own loop would set it): set + solve + get. The drive input moves

@@ -6,12 +6,15 @@ the library rows come from one run on the same inputs.
     /usr/bin/python3 -B tests/benchmarks/peer_cases.py [--lib build/abi/libelyblock.so]
         [--peer-dir DIR] [--threads N] [peer_bench options: --n 1000000 --reps 7 --json FILE ...]
 
-Cases added (every one through ely_block_solve_batch over ctypes, the inputs handed over as the
-row-major matrix the C interface reads, built inside the timed call; the eleven outputs that
+Cases added (through ely_block_solve_batch over ctypes, the inputs handed over as the row-major
+matrix that call reads, built inside the timed call, and through ely_block_solve_batch_columns with
+the arrays as they are; the eleven outputs that
 correspond to the peer's eleven: voltage and its five parts, Faraday efficiency, hydrogen,
 DC power, specific energy, H2 in O2):
   library batch evaluate          spec current_density, inputs j, T, p_c, p_a per point
   library batch power solve       spec power, inputs P, T, p_c, p_a per point (kind "solve")
+  ... the same two through ely_block_solve_batch_columns (the numpy arrays handed over as they are,
+      the outputs as contiguous columns).
   ... with --threads N also the same two through ely_block_solve_batch_threads (information).
 
 The plant is the peer's stack (100 cells x 0.1 m2, PARAMS of peer_numpy) with the cell
@@ -82,6 +85,11 @@ class Library:
         L.ely_block_solve_batch.argtypes = [ctypes.c_void_p, ctypes.c_size_t, ctypes.c_int32, ctypes.c_void_p,
                                             ctypes.c_void_p, ctypes.c_int32, ctypes.c_void_p, ctypes.c_void_p,
                                             ctypes.c_void_p, ctypes.c_void_p, ctypes.c_void_p]
+        self.columns = getattr(L, "ely_block_solve_batch_columns", None)
+        if self.columns is not None:
+            self.columns.argtypes = [ctypes.c_void_p, ctypes.c_size_t, ctypes.c_int32, ctypes.c_void_p, ctypes.c_void_p,
+                                     ctypes.c_int32, ctypes.c_void_p, ctypes.c_void_p, ctypes.c_void_p, ctypes.c_void_p,
+                                     ctypes.c_void_p]
         self.threads = getattr(L, "ely_block_solve_batch_threads", None)
         if self.threads is not None:
             self.threads.argtypes = [ctypes.c_void_p, ctypes.c_size_t, ctypes.c_int32, ctypes.c_void_p,
@@ -124,6 +132,27 @@ def make_case(np, lib, block, input_names, output_names, threads=0):
     return run
 
 
+def make_columns_case(np, lib, block, input_names, output_names):
+    """The same through ely_block_solve_batch_columns: the caller's arrays as they are, the outputs as
+    the rows of one (n_outputs, n) array (each a contiguous column of the call)."""
+    idx_in = np.array([lib.index(block, n) for n in input_names], dtype=np.int32)
+    idx_out = np.array([lib.index(block, n) for n in output_names], dtype=np.int32)
+
+    def run(columns):
+        n = columns[0].size
+        cols = [np.ascontiguousarray(c, dtype=np.float64) for c in columns]
+        in_ptr = (ctypes.c_void_p * len(cols))(*[c.ctypes.data for c in cols])
+        out = np.empty((idx_out.size, n))
+        out_ptr = (ctypes.c_void_p * idx_out.size)(*[out[o].ctypes.data for o in range(idx_out.size)])
+        status = np.empty(n, dtype=np.int32)
+        rc = lib.columns(block, n, idx_in.size, idx_in.ctypes.data, ctypes.addressof(in_ptr), idx_out.size,
+                         idx_out.ctypes.data, ctypes.addressof(out_ptr), status.ctypes.data, None, None)
+        if rc < 0 or rc == 2:
+            raise RuntimeError(f"batch status {rc}: {lib.lib.ely_last_error().decode()}")
+        return out.T, status
+    return run
+
+
 def main(argv=None):
     ap = argparse.ArgumentParser(description=__doc__.split("\n")[0], add_help=True)
     ap.add_argument("--lib", default=os.path.join(ROOT, "build", "abi", "libelyblock.so"))
@@ -157,6 +186,18 @@ def main(argv=None):
     assert (st >= 0).all(), "power solve: some points failed"
     assert np.allclose(out[:, OUTPUTS.index("stack.power")], x["P"], rtol=1e-9, atol=0)
 
+    if lib.columns is not None:
+        evc = make_columns_case(np, lib, evaluate, ("in.current_density", "in.temperature", "in.pressure_cathode",
+                                                     "in.pressure_anode"), OUTPUTS)
+        soc = make_columns_case(np, lib, solve, ("in.power", "in.temperature", "in.pressure_cathode",
+                                                  "in.pressure_anode"), OUTPUTS)
+        out_r, _ = ev((x["j"], x["T"], x["p_c"], x["p_a"]))
+        out_c, st = evc((x["j"], x["T"], x["p_c"], x["p_a"]))
+        assert (st >= 0).all() and np.array_equal(out_c, out_r), "columns: not the row-major call's outputs"
+        pb.add_case("library batch evaluate (ely_block_solve_batch_columns)",
+                    lambda x: evc((x["j"], x["T"], x["p_c"], x["p_a"])))
+        pb.add_case("library batch power solve (ely_block_solve_batch_columns)",
+                    lambda x: soc((x["P"], x["T"], x["p_c"], x["p_a"])), kind="solve")
     pb.add_case("library batch evaluate (ely_block_solve_batch)",
                 lambda x: ev((x["j"], x["T"], x["p_c"], x["p_a"])))
     pb.add_case("library batch power solve (ely_block_solve_batch)",

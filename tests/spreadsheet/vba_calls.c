@@ -320,6 +320,18 @@ static int run_calls(const wchar_t* plant_path) {
             CHECK(threaded_status[k] == status[k] && close_rel(threaded[k], out[k], 1e-12),
                   "threaded batch point %d: %.17g vs %.17g", k, threaded[k], out[k]);
     }
+    /* The same batch as columns (one array per input and output): the same values, bit for bit. */
+    {
+        double column_out[N];
+        int32_t column_status[N];
+        intptr_t in_columns[1] = {(intptr_t)in}, out_columns[1] = {(intptr_t)column_out};
+        CHECK(CALL(ely_block_solve_batch_columns)(copy, N, 1, (int32_t[]){i_j}, in_columns, 1, outputs, out_columns,
+                                                  column_status, 0, 0) == ELY_OK,
+              "batch as columns: %s", last_error());
+        for (int k = 0; k < N; ++k)
+            CHECK(column_status[k] == status[k] && column_out[k] == out[k], "batch as columns point %d: %.17g vs %.17g",
+                  k, column_out[k], out[k]);
+    }
 
     /* A fit: the contact resistance recovered from the curve made at its default value. */
     const int32_t i_r = find(copy, L"param.cell.contact_resistance");

@@ -218,12 +218,25 @@ ELY_API int32_t ely_block_solve_batch(const ely_block* block, size_t n_points, i
                                       const int32_t* output_indices, double* outputs, int32_t* point_status,
                                       ely_progress_fn progress, void* user);
 
+/* ely_block_solve_batch with the inputs and outputs as columns, the layout of arrays kept per
+ * variable (numpy arrays, data frames): point k takes input_indices[i] from input_columns[i][k] and
+ * gives output_indices[o] into output_columns[o][k]. Everything else as ely_block_solve_batch
+ * (statuses, messages, NaN for failed points, progress, the working copy). Each column has n_points
+ * elements; input_columns and output_columns, and each of their n_inputs and n_outputs columns,
+ * must not be NULL whenever n_points > 0; no output column may overlap an input column. Where the
+ * vectorized batch applies (docs/batch.md) the points are read from and written into the columns
+ * without a copy. */
+ELY_API int32_t ely_block_solve_batch_columns(const ely_block* block, size_t n_points, int32_t n_inputs,
+                                              const int32_t* input_indices, const double* const* input_columns,
+                                              int32_t n_outputs, const int32_t* output_indices,
+                                              double* const* output_columns, int32_t* point_status,
+                                              ely_progress_fn progress, void* user);
+
 /* ely_block_solve_batch on several threads: the same arguments, statuses, outputs and messages,
  * and threads (>= 1; 0 for one per core). The points are cut into pieces of 4096 in order; each
  * piece is solved in order on its own working copy of the block at the start of the call (as
  * ely_block_solve_batch solves all points on one), so the results do not depend on the thread
- * count (at the power, hydrogen-rate and voltage specs a piece's first point is not warm-started
- * from the previous piece, which moves its answer only within the solver's tolerance). progress is
+ * count. progress is
  * called on the calling thread after each piece it solves and after the last point; returning
  * non-zero stops the pieces not yet started (their points get ELY_ERR_CANCELLED). Every other
  * call on the same block must wait for it (the block is read, not changed). */
