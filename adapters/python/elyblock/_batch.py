@@ -16,8 +16,8 @@ def is_dataframe(value):
 
 
 class Table:
-    """The inputs of a batch: ``names`` as given, ``matrix`` (points x inputs, C order,
-    float64), the ``shape`` the points came in (NumPy broadcasting of the arrays) and the
+    """The inputs of a batch: ``names`` as given, ``matrix`` (points x inputs, float64, Fortran
+    order: each input's points contiguous, as the library's column call reads them), the ``shape`` the points came in (NumPy broadcasting of the arrays) and the
     DataFrame index when the inputs were a DataFrame."""
 
     def __init__(self, names, matrix, shape, index=None):
@@ -51,7 +51,7 @@ class Table:
         if not names:
             raise errors.InvalidArgumentError("batch inputs: no input variable given")
         points = math.prod(shape)
-        matrix = np.empty((points, len(names)), dtype=np.float64)
+        matrix = np.empty((points, len(names)), dtype=np.float64, order="F")
         for i, column in enumerate(columns):
             matrix[:, i] = np.ravel(column)
         return cls(names, matrix, shape, index)

@@ -462,9 +462,9 @@ class Block:
             in_idx = np.array([index for _, index in resolved], dtype=np.int32)
             out_idx = np.array([self._index(name) for name in outputs], dtype=np.int32)
             n = table.points
-            values = np.empty((n, len(outputs)), dtype=np.float64)
+            values = np.empty((n, len(outputs)), dtype=np.float64, order="F")
             status = np.empty(n, dtype=np.int32)
-            matrix = np.ascontiguousarray(table.matrix, dtype=np.float64)
+            matrix = np.asfortranarray(table.matrix, dtype=np.float64)
             work = self
             if spec is not None and spec != self.spec:
                 work = self.clone()
@@ -479,9 +479,17 @@ class Block:
         return values, status, errors.Status(call_status), message
 
 
+def _column_pointers(matrix):
+    """The address of each column of a points x columns Fortran-ordered matrix (each column
+    contiguous), as the library's column call takes them."""
+    assert matrix.dtype == np.float64 and (matrix.shape[0] <= 1 or matrix.strides[0] == 8)
+    return (ctypes.c_void_p * max(1, matrix.shape[1]))(*[matrix[:, k].ctypes.data for k in range(matrix.shape[1])])
+
+
 def _call_batch(work, in_idx, matrix, out_idx, values, status, callback=None):
-    """ely_block_solve_batch over the rows of ``matrix``: (call status, the library's message)."""
-    call_status = lib.ely_block_solve_batch(
-        work._live(), len(matrix), len(in_idx), in_idx.ctypes.data, matrix.ctypes.data, len(out_idx),
-        out_idx.ctypes.data, values.ctypes.data, status.ctypes.data, callback or _progress.NO_CALLBACK, None)
+    """ely_block_solve_batch_columns over the columns of ``matrix`` into the columns of ``values``
+    (both Fortran order: no copy on either side of the call): (call status, the library's message)."""
+    call_status = lib.ely_block_solve_batch_columns(
+        work._live(), len(matrix), len(in_idx), in_idx.ctypes.data, _column_pointers(matrix), len(out_idx),
+        out_idx.ctypes.data, _column_pointers(values), status.ctypes.data, callback or _progress.NO_CALLBACK, None)
     return call_status, _capi.last_error()
