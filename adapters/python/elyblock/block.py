@@ -464,7 +464,9 @@ class Block:
             n = table.points
             values = np.empty((n, len(outputs)), dtype=np.float64, order="F")
             status = np.empty(n, dtype=np.int32)
-            matrix = np.asfortranarray(table.matrix, dtype=np.float64)
+            # Fortran order and aligned: a table unpickled on a Dask worker can hold its numbers at
+            # any byte offset of the message, and the C call reads them as doubles.
+            matrix = np.require(table.matrix, dtype=np.float64, requirements=["F_CONTIGUOUS", "ALIGNED"])
             work = self
             if spec is not None and spec != self.spec:
                 work = self.clone()
@@ -482,7 +484,7 @@ class Block:
 def _column_pointers(matrix):
     """The address of each column of a points x columns Fortran-ordered matrix (each column
     contiguous), as the library's column call takes them."""
-    assert matrix.dtype == np.float64 and (matrix.shape[0] <= 1 or matrix.strides[0] == 8)
+    assert matrix.dtype == np.float64 and matrix.flags.aligned and (matrix.shape[0] <= 1 or matrix.strides[0] == 8)
     return (ctypes.c_void_p * max(1, matrix.shape[1]))(*[matrix[:, k].ctypes.data for k in range(matrix.shape[1])])
 
 
