@@ -73,6 +73,25 @@ static void file_uri(const char* path, char* uri, size_t size) {
     uri[n] = 0;
 }
 
+/* The plant file in the unpacked FMU's resources, and the resource location the standard hands the
+ * FMU: FMI 2 a file: URI of the folder (file:///Z:/dir/resources on Windows), FMI 3 a native path
+ * ending in a separator ('\\' on Windows). */
+static void resource_locations(int version, const char* dir, char* plant, size_t plant_size, char* resources,
+                               size_t size) {
+    snprintf(plant, plant_size, "%s/resources/plant.json", dir);
+    if (version == 2) {
+        char resource_dir[8192];
+        snprintf(resource_dir, sizeof resource_dir, "%s/resources", dir);
+        file_uri(resource_dir, resources, size);
+        return;
+    }
+    snprintf(resources, size, "%s/resources/", dir);
+#ifdef _WIN32
+    for (char* c = resources; *c; ++c)
+        if (*c == '/') *c = '\\';
+#endif
+}
+
 #ifdef _WIN32
 /* The value of attribute `name` inside the tag [tag, end), into out; 0 when absent. */
 static int attribute(const char* tag, const char* end, const char* name, char* out, size_t size) {
@@ -425,16 +444,7 @@ int main(int argc, char** argv) {
     read_description(dir);
     if (argc == 4 && !(values = open_utf8(argv[3], "w"))) return 100;
     snprintf(binary, sizeof binary, "%s/binaries/%s/%s.dll", dir, version == 2 ? "win64" : "x86_64-windows", identifier);
-    snprintf(plant, sizeof plant, "%s/resources/plant.json", dir);
-    if (version == 2) {
-        char resource_dir[8192];
-        snprintf(resource_dir, sizeof resource_dir, "%s/resources", dir);
-        file_uri(resource_dir, resources, sizeof resources); /* file:///Z:/dir/resources */
-    } else {
-        snprintf(resources, sizeof resources, "%s/resources/", dir); /* a native path, '\\' separators */
-        for (char* c = resources; *c; ++c)
-            if (*c == '/') *c = '\\';
-    }
+    resource_locations(version, dir, plant, sizeof plant, resources, sizeof resources);
     wchar_t wide[8192];
     if (!MultiByteToWideChar(CP_UTF8, 0, binary, -1, wide, 8192)) return 104;
     lib = (void*)LoadLibraryW(wide);
@@ -450,14 +460,7 @@ int main(int argc, char** argv) {
     read_description(dir);
     if (argc == 4 && !(values = open_utf8(argv[3], "w"))) return 100;
     snprintf(binary, sizeof binary, "%s/binaries/%s/%s.so", dir, version == 2 ? "linux64" : "x86_64-linux", identifier);
-    snprintf(plant, sizeof plant, "%s/resources/plant.json", dir);
-    if (version == 2) {
-        char resource_dir[8192];
-        snprintf(resource_dir, sizeof resource_dir, "%s/resources", dir);
-        file_uri(resource_dir, resources, sizeof resources);
-    } else {
-        snprintf(resources, sizeof resources, "%s/resources/", dir);
-    }
+    resource_locations(version, dir, plant, sizeof plant, resources, sizeof resources);
     lib = dlopen(binary, RTLD_NOW | RTLD_LOCAL);
     if (!lib) {
         fprintf(stderr, "dlopen %s: %s\n", binary, dlerror());

@@ -10,12 +10,7 @@
 # ELY_WORK_DIR (and ELY_OBJDUMP, unused). Headless: no DISPLAY, WINEDEBUG=-all, no Mono/Gecko installers; wineserver -k at the end.
 set -euo pipefail
 version=$1 fmu=$2 linux_importer=$3
-unset DISPLAY WAYLAND_DISPLAY
-export HOME=${HOME:-$(dirname "$WINEPREFIX")}
-export WINEDEBUG=-all WINEDLLOVERRIDES="mscoree=;mshtml=" LANG=C.UTF-8 LC_ALL=C.UTF-8
-trap '"$ELY_WINESERVER" -k >/dev/null 2>&1 || true' EXIT
-fail() { echo "FAILED: $*" >&2; exit 1; }
-winpath() { local p; p=$(realpath -m "$1"); echo "Z:${p//\//\\}"; }
+source "$(dirname "$0")/../windows/wine_env.sh"
 
 [[ $version == 2 ]] && folder=win64 || folder=x86_64-windows
 work=$ELY_WORK_DIR

@@ -71,10 +71,11 @@ TEST(AemMembrane, ConductivityRisesWithHydrationAndVanishesDry) {
 
 TEST(AemCell, PolarizationCurveInsideThePublishedBand) {
     // IRENA, Green Hydrogen Cost Reduction (2020), key performance indicators of AEM electrolysers:
-    // 1 M KOH, 40–60 °C, nominal current density 0.2–2 A/cm², cell voltage 1.4–2.0 V. At the
-    // defaults, over 0.2–1 A/cm² at 50, 60 and 70 °C, the voltage stays inside 1.4–2.0 V.
+    // 1 M KOH, 40–60 °C, nominal current density 0.2–2 A/cm², cell voltage 1.4–2.0 V. The band's own
+    // rectangle is checked in test_published_bands.cpp; here the extrapolated 70 °C, over 0.2–1 A/cm²,
+    // stays inside it too.
     const auto cell = aem();
-    for (double t : {50.0, 60.0, 70.0}) {
+    for (double t : {70.0}) {
         for (double j : {0.2, 0.4, 0.6, 0.8, 1.0}) {
             const double v = cell->evaluate(at(j, t)).voltage;
             EXPECT_GE(v, 1.4) << t << " degC, " << j << " A/cm2";

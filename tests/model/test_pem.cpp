@@ -33,17 +33,12 @@ const std::pair<double, double> kPressures[] = {{kAtm, kAtm}, {kAtm, 30e5}, {10e
 
 }  // namespace
 
-TEST(PemCell, TypicalVoltageAt2AcmSquared) {
-    // State-of-the-art PEM cells: 1.75-2.20 V over 0.6-10 A/cm2 at 50-80 C and < 30 bar (Carmo et al.,
-    // Int. J. Hydrogen Energy 38 (2013) 4901, Table 1, as reproduced in a stored encyclopedia page); checked
-    // at the nominal 1-2 A/cm2 (a cell at 0.6 A/cm2 and 80 C runs below the band's floor).
+TEST(PemCell, NominalLoadIsFarFromTheLimitingCurrent) {
+    // The voltage band of the nominal 1-2 A/cm2 is checked in test_published_bands.cpp; there the
+    // concentration loss must not be near its limit.
     for (double j : {1e4, 1.5e4, 2e4})
-        for (double t : {323.15, 353.15}) {
-            const auto r = pem()->evaluate({j, t, kAtm, 30e5});
-            EXPECT_GE(r.voltage, 1.75) << j << " A/m2 " << t << " K";
-            EXPECT_LE(r.voltage, 2.20) << j << " A/m2 " << t << " K";
-            EXPECT_EQ(r.warnings & kWarnNearLimitingCurrent, 0u);
-        }
+        for (double t : {323.15, 353.15})
+            EXPECT_EQ(pem()->evaluate({j, t, kAtm, 30e5}).warnings & kWarnNearLimitingCurrent, 0u) << j << " " << t;
 }
 
 TEST(PemCell, MembraneResistanceAgainstMeasuredNafion117) {

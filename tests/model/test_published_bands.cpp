@@ -69,8 +69,8 @@ TEST(PublishedBands, PemInsideCarmo2013AtItsNominalLoad) {
     // Carmo, Fritz, Mergel & Stolten, Int. J. Hydrogen Energy 38 (2013) 4901, Table 1, as reproduced in a
     // stored encyclopedia page: state-of-the-art PEM cells 1.75–2.20 V, 50–80 °C, < 30 bar. The table's
     // current density range (0.6–10 A/cm²) spans cells of different membranes; the default 178 µm membrane is
-    // held to the band over IRENA's nominal 1–2 A/cm² (at 0.6 A/cm² it runs below the floor, as thinner-loaded
-    // cells at part load do; at 3 A/cm² and 50 °C a 178 µm membrane alone costs about 0.9 V).
+    // held to the band over IRENA's nominal 1–2 A/cm² (at 0.6 A/cm², part load, it runs below the floor;
+    // at 3 A/cm² and 50 °C its ohmic loss, membrane and contacts, is 0.69 V).
     expect_inside({"pem", 1.0, 2.0, 50, 80, 1.75, 2.20, 30e5, false});
 }
 

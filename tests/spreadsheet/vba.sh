@@ -11,12 +11,7 @@
 set -euo pipefail
 case_name=$1
 shift
-unset DISPLAY WAYLAND_DISPLAY
-export HOME=${HOME:-$(dirname "$WINEPREFIX")}
-export WINEDEBUG=-all WINEDLLOVERRIDES="mscoree=;mshtml=" LANG=C.UTF-8 LC_ALL=C.UTF-8
-trap '"$ELY_WINESERVER" -k >/dev/null 2>&1 || true' EXIT
-fail() { echo "FAILED: $*" >&2; exit 1; }
-winpath() { local p; p=$(realpath -m "$1"); echo "Z:${p//\//\\}"; }
+source "$(dirname "$0")/../windows/wine_env.sh"
 bas=$ELY_SOURCE_DIR/adapters/spreadsheet/excel/elyblock.bas
 bin=$ELY_WINDOWS_BUILD/bin
 mkdir -p "$ELY_WORK_DIR"

@@ -6,14 +6,7 @@
 set -euo pipefail
 case_name=$1
 shift
-unset DISPLAY WAYLAND_DISPLAY
-export HOME=${HOME:-$(dirname "$WINEPREFIX")}  # Wine wants a home even where CI gives none
-export WINEDEBUG=-all WINEDLLOVERRIDES="mscoree=;mshtml=" LANG=C.UTF-8 LC_ALL=C.UTF-8
-trap '"$ELY_WINESERVER" -k >/dev/null 2>&1 || true' EXIT
-
-fail() { echo "FAILED: $*" >&2; exit 1; }
-# Unix path -> the Windows path of Wine's Z: drive (the whole Unix file system).
-winpath() { local p; p=$(realpath -m "$1"); echo "Z:${p//\//\\}"; }
+source "$(dirname "$0")/wine_env.sh"
 run_wine() { "$ELY_WINE" "$@"; }
 bin=${ELY_WINDOWS_BUILD:-}/bin
 install=${ELY_WINDOWS_BUILD:-}/install
